@@ -1,0 +1,102 @@
+/**
+ * Units and angle helpers (see the conventions table in the README).
+ *
+ * @module
+ */
+import { InputError } from '../errors.js';
+
+/** Radians per milliarcsecond: pi / (180 * 3600 * 1000). */
+export const RAD_PER_MAS = Math.PI / 648_000_000;
+/** Milliarcseconds per radian. */
+export const MAS_PER_RAD = 648_000_000 / Math.PI;
+/** Radians per degree. */
+export const RAD_PER_DEG = Math.PI / 180;
+/** Degrees per radian. */
+export const DEG_PER_RAD = 180 / Math.PI;
+
+/**
+ * Converts milliarcseconds to radians.
+ *
+ * @param mas - angle in milliarcseconds
+ * @returns the angle in radians
+ * @example
+ * ```ts
+ * masToRad(1); // 4.84813681109536e-9
+ * ```
+ */
+export function masToRad(mas: number): number {
+  return mas * RAD_PER_MAS;
+}
+
+/**
+ * Converts radians to milliarcseconds.
+ *
+ * @param rad - angle in radians
+ * @returns the angle in milliarcseconds
+ */
+export function radToMas(rad: number): number {
+  return rad * MAS_PER_RAD;
+}
+
+/** Converts degrees to radians. */
+export function degToRad(deg: number): number {
+  return deg * RAD_PER_DEG;
+}
+
+/** Converts radians to degrees. */
+export function radToDeg(rad: number): number {
+  return rad * DEG_PER_RAD;
+}
+
+/**
+ * Spatial frequency of a projected baseline at a wavelength.
+ *
+ * @param baseline - projected baseline component in metres (OIFITS UCOORD or VCOORD)
+ * @param wavelength - wavelength in metres (OIFITS EFF_WAVE), must be positive
+ * @returns the spatial frequency in cycles per radian (baseline / wavelength)
+ * @example
+ * ```ts
+ * spatialFrequency(100, 2e-6); // 5e7 cycles per radian
+ * ```
+ */
+export function spatialFrequency(baseline: number, wavelength: number): number {
+  if (!(wavelength > 0) || !Number.isFinite(wavelength)) {
+    throw new InputError(
+      `spatialFrequency: wavelength must be a positive finite number of metres, got ${wavelength}`,
+      { argument: 'wavelength' },
+    );
+  }
+  return baseline / wavelength;
+}
+
+/**
+ * Wraps a phase in degrees into (-180, 180]; -180 maps to +180.
+ *
+ * @param deg - phase in degrees (any finite value)
+ * @returns the same angle in (-180, 180]
+ * @example
+ * ```ts
+ * wrapDegrees(190); // -170
+ * wrapDegrees(-180); // 180
+ * ```
+ */
+export function wrapDegrees(deg: number): number {
+  let r = deg % 360; // in (-360, 360)
+  if (r > 180) r -= 360;
+  else if (r <= -180) r += 360;
+  return r;
+}
+
+/**
+ * Wraps a phase in radians into (-pi, pi]; -pi maps to +pi.
+ *
+ * @param rad - phase in radians
+ * @returns the same angle in (-pi, pi]
+ */
+export function wrapRadians(rad: number): number {
+  const twoPi = 2 * Math.PI;
+  let r = rad % twoPi;
+  if (r > Math.PI) r -= twoPi;
+  else if (r <= -Math.PI) r += twoPi;
+  return r;
+}
