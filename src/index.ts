@@ -4,4 +4,22 @@
  * @module
  */
 export * from './errors.js';
+export { FACTOR_KINDS, type FactorKind } from './model/canonical.js';
+export {
+  type ComplexColumns,
+  convolve,
+  disk,
+  EQUALS_TOLERANCE,
+  ellipse,
+  gaussian,
+  Model,
+  point,
+  ring,
+  sum,
+  type Term,
+  type TermFactor,
+} from './model/model.js';
+export type * from './model/nodes.js';
+export { fixed, isParam, type Param, type ParamOptions, param, type Slot } from './model/param.js';
+export { ZERO_FLUX_FRACTION } from './model/plan.js';
 export * from './units/index.js';

@@ -1,0 +1,270 @@
+#!/usr/bin/python3
+"""Generate the polynomial coefficients used by src/kernels/bessel.ts and src/kernels/gamma.ts.
+
+Run from the repository root with the Debian interpreter:
+
+    /usr/bin/python3 src/kernels/generate-coefficients.py
+
+It writes src/kernels/bessel-coefficients.ts and src/kernels/gamma-coefficients.ts,
+both stamped "generated: do not edit".
+
+Method (all arithmetic in mpmath at 50 significant digits):
+  * each target function is interpolated at the Chebyshev points of the first kind
+    of a high degree on its interval;
+  * the Chebyshev series is truncated where the dropped coefficients add up to less
+    than TAIL (relative to the size of the function on the interval);
+  * the truncated series is re-expanded as an ordinary polynomial in the local
+    variable that the TypeScript kernel uses, and rounded to binary64;
+  * the rounded polynomial is checked against mpmath on a dense grid, and the
+    largest error found is written into the generated file.
+
+Fitted pieces:
+  J0, J1, J2 on 0 <= x <= 2, as polynomials in s = x^2 with the value at 0 pinned:
+      J0 = 1 + s B0(s),  J1 / x = 1/2 + s B1(s),  J2 / x^2 = 1/8 + s B2(s)
+  J0, J1 on [n, n + 1] for n = 2 .. 11, as polynomials in t = x - (n + 1/2)
+  J0, J1 on x >= 12 through the Hankel form
+      J_n(x) = sqrt(2 / (pi x)) (P_n(x) cos w - Q_n(x) sin w),  w = x - (2 n + 1) pi / 4,
+  with P_n and x Q_n as polynomials in t = 144 / x^2 on [0, 1]; P and Q are taken
+  from mpmath's besselj and bessely.
+  1 / Gamma(z) on 1 <= z <= 2, as a polynomial in w = z - 3/2.
+"""
+
+import os
+import platform
+import subprocess
+import sys
+
+import mpmath as mp
+
+mp.mp.dps = 50
+TAIL = mp.mpf('1e-19')
+HERE = os.path.dirname(os.path.abspath(__file__))
+
+
+def cheb_coefficients(f, deg):
+    """Chebyshev interpolation coefficients of f on u in [-1, 1] at deg + 1 points."""
+    n = deg + 1
+    nodes = [mp.cos(mp.pi * (k + mp.mpf(1) / 2) / n) for k in range(n)]
+    vals = [f(u) for u in nodes]
+    c = []
+    for j in range(n):
+        s = mp.fsum(vals[k] * mp.cos(mp.pi * j * (k + mp.mpf(1) / 2) / n) for k in range(n))
+        c.append(2 * s / n)
+    c[0] /= 2
+    return c
+
+
+def truncate(c, scale):
+    """Smallest degree whose dropped tail is below TAIL * scale."""
+    deg = len(c) - 1
+    while deg > 0 and mp.fsum(abs(x) for x in c[deg:]) < TAIL * scale:
+        deg -= 1
+    return deg + 1 if deg + 1 < len(c) else deg
+
+
+def poly_mul(a, b):
+    out = [mp.mpf(0)] * (len(a) + len(b) - 1)
+    for i, x in enumerate(a):
+        for j, y in enumerate(b):
+            out[i + j] += x * y
+    return out
+
+
+def poly_add(a, b):
+    n = max(len(a), len(b))
+    return [(a[i] if i < len(a) else 0) + (b[i] if i < len(b) else 0) for i in range(n)]
+
+
+def cheb_to_monomial(c, alpha, beta):
+    """Coefficients in w of sum c_j T_j(u) with u = alpha w + beta."""
+    u = [mp.mpf(beta), mp.mpf(alpha)]
+    t_prev, t_cur = [mp.mpf(1)], u
+    out = [c[0]]
+    if len(c) > 1:
+        out = poly_add(out, [c[1] * x for x in t_cur])
+    for j in range(2, len(c)):
+        t_next = poly_add([2 * x for x in poly_mul(u, t_cur)], [-x for x in t_prev])
+        out = poly_add(out, [c[j] * x for x in t_next])
+        t_prev, t_cur = t_cur, t_next
+    return out
+
+
+def horner(coeffs, w):
+    acc = mp.mpf(0)
+    for a in reversed(coeffs):
+        acc = acc * w + a
+    return acc
+
+
+def fit(f, lo, hi, deg_max, alpha_beta, deg=None):
+    """Fit f(v) on v in [lo, hi]; return (monomial coefficients in the local variable, degree)."""
+    lo, hi = mp.mpf(lo), mp.mpf(hi)
+    c = cheb_coefficients(lambda u: f((hi - lo) / 2 * u + (hi + lo) / 2), deg_max)
+    scale = max(abs(f(lo)), abs(f(hi)), abs(f((lo + hi) / 2)), mp.mpf('1e-300'))
+    if deg is None:
+        deg = truncate(c, scale)
+    alpha, beta = alpha_beta
+    mono = cheb_to_monomial(c[: deg + 1], alpha, beta)
+    return [float(x) for x in mono], deg
+
+
+def check(coeffs, f, lo, hi, local, n=400):
+    worst = mp.mpf(0)
+    for k in range(n + 1):
+        v = mp.mpf(lo) + (mp.mpf(hi) - lo) * k / n
+        err = abs(horner([mp.mpf(a) for a in coeffs], local(v)) - f(v))
+        worst = max(worst, err)
+    return worst
+
+
+def hankel_pq(n, x):
+    """P_n(x) and Q_n(x) of the Hankel form, from the asymptotic series (A&S 9.2.5, 9.2.9, 9.2.10)
+    where it reaches far below the working precision, else from mpmath's besselj and bessely."""
+    x = mp.mpf(x)
+    if x >= 150:
+        mu = 4 * n * n
+        term, p, q, k = mp.mpf(1), mp.mpf(1), mp.mpf(0), 0
+        while abs(term) > mp.mpf('1e-60'):
+            k += 1
+            term *= (mu - (2 * k - 1) ** 2) / (k * 8 * x)
+            sign = -1 if (k // 2) % 2 else 1
+            if k % 2 == 0:
+                p += sign * term
+            else:
+                q += sign * term
+        return p, q
+    w = x - (2 * n + 1) * mp.pi / 4
+    j, y = mp.besselj(n, x), mp.bessely(n, x)
+    s = mp.sqrt(mp.pi * x / 2)
+    return s * (j * mp.cos(w) + y * mp.sin(w)), s * (y * mp.cos(w) - j * mp.sin(w))
+
+
+def fmt(values):
+    return ',\n  '.join(repr(v) for v in values)
+
+
+def horner_fn(name, doc, var, coeffs):
+    """TypeScript function evaluating sum coeffs[k] var^k by Horner's rule, literals inline."""
+    lines = [f'/** {doc} */', f'export function {name}({var}: number): number {{']
+    lines.append(f'  let r = {coeffs[-1]!r};')
+    for a in reversed(coeffs[:-1]):
+        lines.append(f'  r = r * {var} + {a!r};')
+    lines.append('  return r;')
+    lines.append('}\n')
+    return '\n'.join(lines)
+
+
+def horner_table_fn(name, doc, table, stride):
+    """TypeScript function evaluating piece k of a flat coefficient table at t."""
+    deg = stride - 1
+    lines = [f'/** {doc} */', f'export function {name}(k: number, t: number): number {{',
+             f'  const o = k * {stride};', f'  let r = {table}[o + {deg}]!;']
+    for j in range(deg - 1, 0, -1):
+        lines.append(f'  r = r * t + {table}[o + {j}]!;')
+    lines.append(f'  return r * t + {table}[o]!;')
+    lines.append('}\n')
+    return '\n'.join(lines)
+
+
+def main():
+    header = [
+        '// generated: do not edit.',
+        '// Written by src/kernels/generate-coefficients.py with',
+        f'// Python {platform.python_version()}, mpmath {mp.__version__}, working precision {mp.mp.dps} digits.',
+    ]
+    report = []
+    out = []
+
+    # --- near zero: polynomials in s = x^2 on [0, 4], value at 0 pinned -----------------
+    def near_zero(name, fn, order, lead):
+        # B(s) = (J_n(x) / x^n - 1 / (2^n n!)) / s = 2^-n sum_{k >= 1} (-1/4)^k s^(k-1) / (k! (k+n)!),
+        # summed from the power series (A&S 9.1.10) and checked against mpmath's besselj below.
+        def h(s):
+            s = mp.mpf(s)
+            total, k = mp.mpf(0), 1
+            while True:
+                term = (mp.mpf(-1) / 4) ** k * s ** (k - 1) / (mp.factorial(k) * mp.factorial(k + order))
+                total += term
+                if abs(term) < mp.mpf('1e-55'):
+                    return total / 2**order
+                k += 1
+
+        for s in (mp.mpf('0.3'), mp.mpf('3.9')):
+            x = mp.sqrt(s)
+            direct = (mp.besselj(order, x) / x**order - mp.mpf(1) / (2**order * mp.factorial(order))) / s
+            assert abs(direct - h(s)) < mp.mpf('1e-40'), (name, s)
+
+        coeffs, deg = fit(h, 0, 4, 30, (mp.mpf(1) / 2, -1))
+        lo_err = check(coeffs, h, 0, 4, lambda s: s)
+        report.append(f'// {name}: degree {deg} in s, largest error of s * B(s) on 0 <= s <= 4: '
+                      f'{mp.nstr(lo_err * 4, 3)}')
+        out.append(horner_fn(fn, f'{name}: B(s), s = x^2 <= 4, with J{order}(x) / x^{order} = {lead} + s B(s).', 's', coeffs))
+
+    near_zero('J0_NEAR_ZERO', 'j0NearZeroB', 0, 1)
+    near_zero('J1_NEAR_ZERO', 'j1NearZeroB', 1, '1/2')
+    near_zero('J2_NEAR_ZERO', 'j2NearZeroB', 2, '1/8')
+
+    # --- pieces of unit width on [2, 12) ----------------------------------------------------
+    for n in (0, 1):
+        table = []
+        degs = []
+        errs = []
+        # common degree: the largest needed by any piece
+        for k in range(2, 12):
+            _, d = fit(lambda x: mp.besselj(n, x), k, k + 1, 24, (2, 0))
+            degs.append(d)
+        deg = max(degs)
+        for k in range(2, 12):
+            mid = mp.mpf(k) + mp.mpf(1) / 2
+            coeffs, _ = fit(lambda x: mp.besselj(n, x), k, k + 1, 24, (2, 0), deg)
+            errs.append(check(coeffs, lambda x: mp.besselj(n, x), k, k + 1, lambda x: x - mid, 100))
+            table.extend(coeffs)
+        name = f'J{n}_PIECES'
+        report.append(f'// {name}: degree {deg} in t = x - (k + 1/2) on [k, k + 1], k = 2 .. 11, '
+                      f'largest error {mp.nstr(max(errs), 3)}')
+        out.append(f'/** {name}: {deg + 1} coefficients per piece [k, k + 1], k = 2 .. 11, in t = x - (k + 1/2). */')
+        out.append(f'const {name} = new Float64Array([\n  {fmt(table)},\n]);\n')
+        out.append(horner_table_fn(f'j{n}Piece', f'J{n}(x) on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).',
+                                   name, deg + 1))
+
+    # --- Hankel form on x >= 12, polynomials in t = 144 / x^2 --------------------------------
+    for n in (0, 1):
+        def x_of(t):
+            t = max(t, mp.mpf('1e-80'))
+            return 12 / mp.sqrt(t)
+
+        p = lambda t: hankel_pq(n, x_of(t))[0]  # noqa: E731
+        q = lambda t: hankel_pq(n, x_of(t))[1] * x_of(t)  # noqa: E731
+        for label, g in (('P', p), ('Q', q)):
+            coeffs, deg = fit(g, 0, 1, 30, (2, -1))
+            err = check(coeffs, g, 0, 1, lambda t: t, 200)
+            name = f'{label}{n}_HANKEL'
+            what = f'{label}_{n}(x)' if label == 'P' else f'x Q_{n}(x)'
+            report.append(f'// {name}: {what}, degree {deg} in t = 144 / x^2, largest error {mp.nstr(err, 3)}')
+            fn = f'{label.lower()}{n}Hankel'
+            out.append(horner_fn(fn, f'{name}: {what} for x >= 12, t = 144 / x^2.', 't', coeffs))
+
+    with open(os.path.join(HERE, 'bessel-coefficients.ts'), 'w') as fh:
+        fh.write('\n'.join(header + report) + '\n\n' + '\n'.join(out))
+
+    # --- 1 / Gamma on [1, 2] -------------------------------------------------------------------
+    rg = lambda z: 1 / mp.gamma(z)  # noqa: E731
+    coeffs, deg = fit(rg, 1, 2, 40, (2, 0))
+    err = check(coeffs, rg, 1, 2, lambda z: z - mp.mpf(3) / 2)
+    gamma_out = header + [
+        f'// RECIPROCAL_GAMMA: degree {deg} in w = z - 3/2, largest error {mp.nstr(err, 3)}',
+        '',
+        horner_fn('reciprocalGammaOneTwo', 'RECIPROCAL_GAMMA: 1 / Gamma(z) on 1 <= z <= 2, w = z - 3/2.', 'w', coeffs),
+    ]
+    with open(os.path.join(HERE, 'gamma-coefficients.ts'), 'w') as fh:
+        fh.write('\n'.join(gamma_out))
+    # Lay the files out as the repository's formatter would, so a re-run leaves no diff.
+    root = os.path.dirname(os.path.dirname(HERE))
+    subprocess.run(['npx', 'biome', 'format', '--write', 'src/kernels/bessel-coefficients.ts',
+                    'src/kernels/gamma-coefficients.ts'], cwd=root, check=True)
+    print('\n'.join(report), file=sys.stderr)
+    print(f'RECIPROCAL_GAMMA degree {deg} error {mp.nstr(err, 3)}', file=sys.stderr)
+
+
+if __name__ == '__main__':
+    main()

@@ -1,0 +1,743 @@
+/**
+ * The user-facing immutable {@link Model}: primitives, operators, canonical form and evaluation.
+ *
+ * @module
+ */
+import { Complex } from 'complex.js';
+import { InputError, ModelError } from '../errors.js';
+import { DEG_PER_RAD } from '../units/index.js';
+import { canonicalise, type DualTerm, FACTOR_KINDS, type FactorKind } from './canonical.js';
+import { childrenOf, type ModelNode, SLOT_NAMES } from './nodes.js';
+import { isParam, type Param, type Slot } from './param.js';
+import { compilePlan, type Plan, runPlan } from './plan.js';
+
+/** Complex values as separate real and imaginary columns. */
+export interface ComplexColumns {
+  /** Real parts. */
+  re: Float64Array;
+  /** Imaginary parts. */
+  im: Float64Array;
+}
+
+/** A primitive factor of a canonical term (numbers; lengths in mas). */
+export interface TermFactor {
+  /** Unit-size primitive kind. */
+  readonly kind: FactorKind;
+  /** Shape parameters of the primitive (none for the foundation primitives). */
+  readonly shape: readonly number[];
+  /**
+   * The linear map A (row-major [a11, a12, a21, a22], mas per unit size): the factor's image is the unit
+   * primitive I(A^-1 x) / |det A| and its Fourier transform is P(A^T q).
+   */
+  readonly matrix: readonly [number, number, number, number];
+}
+
+/** One canonical term: `flux * prod P_f(A_f^T q) * exp(-2 pi i q . (east, north))`. */
+export interface Term {
+  /** Unnormalised flux of the term. */
+  readonly flux: number;
+  /** Shift east, mas. */
+  readonly east: number;
+  /** Shift north, mas. */
+  readonly north: number;
+  /** Primitive factors (none for a point). */
+  readonly factors: readonly TermFactor[];
+}
+
+/**
+ * Relative tolerance of {@link Model.equals}: two numbers agree when |a - b| <= 1e-9 max(|a|, |b|); lengths
+ * (mas) also agree when |a - b| <= 1e-9 mas, and matrix entries are compared relative to the largest entry.
+ */
+export const EQUALS_TOLERANCE = 1e-9;
+
+interface Cache {
+  terms: DualTerm[];
+  params: Map<string, Param>;
+  plan?: Plan;
+}
+const caches = new WeakMap<Model, Cache>();
+
+function collectParams(node: ModelNode, into: Map<string, Param>, path: string): void {
+  // children first: parameters are listed in the order the model was built
+  const kids = childrenOf(node);
+  if (node.kind === 'sum' || node.kind === 'convolve') {
+    for (let i = 0; i < kids.length; i++) collectParams(kids[i]!, into, `${path}.of[${i}]`);
+  } else if (kids[0]) collectParams(kids[0], into, `${path}.of`);
+  for (const name of SLOT_NAMES[node.kind]) {
+    const s = (node as unknown as Record<string, Slot>)[name];
+    if (isParam(s)) {
+      const prev = into.get(s.name);
+      if (prev === undefined) into.set(s.name, s);
+      else if (
+        prev !== s &&
+        (prev.value !== s.value || prev.min !== s.min || prev.max !== s.max || prev.fixed !== s.fixed)
+      ) {
+        throw new ModelError(
+          `${path}.${name}: parameter '${s.name}' appears twice with different settings ` +
+            `(value ${prev.value} in [${prev.min}, ${prev.max}]${prev.fixed ? ' fixed' : ''} vs value ${s.value} in [${s.min}, ${s.max}]${s.fixed ? ' fixed' : ''}); ` +
+            'use the same param(...) object to tie slots, or give them different names',
+          { modelPath: `${path}.${name}`, parameter: s.name },
+        );
+      }
+    }
+  }
+}
+
+function freezeDeep<T>(x: T): T {
+  if (typeof x === 'object' && x !== null && !Object.isFrozen(x)) {
+    for (const v of Object.values(x)) freezeDeep(v);
+    Object.freeze(x);
+  }
+  return x;
+}
+
+function toF64(x: ArrayLike<number>, fn: string, name: string): Float64Array {
+  if (x === null || typeof x !== 'object' || typeof x.length !== 'number') {
+    throw new InputError(`${fn}: ${name} must be an array or typed array of numbers`, { argument: name });
+  }
+  const a = x instanceof Float64Array ? x : Float64Array.from(x as ArrayLike<number>);
+  for (let i = 0; i < a.length; i++) {
+    const t = a[i]!;
+    if (t - t !== 0) {
+      throw new InputError(
+        `${fn}: ${name}[${i}] is ${Number.isNaN(t) ? 'NaN' : t}; spatial frequencies must be finite numbers in cycles per radian`,
+        { argument: name, index: i },
+      );
+    }
+  }
+  return a;
+}
+
+function sameLength(fn: string, names: readonly string[], arrays: readonly Float64Array[]): number {
+  const n = arrays[0]!.length;
+  for (let k = 1; k < arrays.length; k++) {
+    if (arrays[k]!.length !== n) {
+      throw new InputError(
+        `${fn}: ${names[0]} has ${n} entries but ${names[k]} has ${arrays[k]!.length}; give arrays of equal length`,
+        { argument: names[k]! },
+      );
+    }
+  }
+  return n;
+}
+
+function checkOut(fn: string, out: Float64Array, n: number, name: string): Float64Array {
+  if (!(out instanceof Float64Array) || out.length !== n) {
+    throw new InputError(
+      `${fn}: ${name} must be a Float64Array of length ${n}, got ${out instanceof Float64Array ? `length ${out.length}` : typeof out}`,
+      { argument: name },
+    );
+  }
+  return out;
+}
+
+/** Copies an input when it shares memory with an output, so outputs may alias inputs. */
+function unalias(x: Float64Array, outs: readonly Float64Array[]): Float64Array {
+  for (const o of outs) if (o.buffer === x.buffer) return x.slice();
+  return x;
+}
+
+function fmtNum(x: number): string {
+  return Object.is(x, -0) ? '0' : String(x);
+}
+
+function fmtSlot(s: Slot): string {
+  if (typeof s === 'number') return fmtNum(s);
+  const opts: string[] = [];
+  if (s.min !== Number.NEGATIVE_INFINITY) opts.push(`min: ${fmtNum(s.min)}`);
+  if (s.max !== Number.POSITIVE_INFINITY) opts.push(`max: ${fmtNum(s.max)}`);
+  if (s.fixed) opts.push('fixed: true');
+  return `param('${s.name}', ${fmtNum(s.value)}${opts.length ? `, { ${opts.join(', ')} }` : ''})`;
+}
+
+function nodeToString(node: ModelNode): string {
+  const s = (name: string) => fmtSlot((node as unknown as Record<string, Slot>)[name]!);
+  switch (node.kind) {
+    case 'point':
+      return 'point()';
+    case 'disk':
+    case 'ring':
+      return `${node.kind}({ diameter: ${s('diameter')} })`;
+    case 'gaussian':
+      return `gaussian({ fwhm: ${s('fwhm')} })`;
+    case 'ellipse':
+      return `ellipse({ major: ${s('major')}, minor: ${s('minor')}, pa: ${s('pa')} })`;
+    case 'weight':
+      return `${nodeToString(node.of)}.weight(${s('flux')})`;
+    case 'shift':
+    case 'stretch':
+      return `${nodeToString(node.of)}.${node.kind}(${s('east')}, ${s('north')})`;
+    case 'rotate':
+      return `${nodeToString(node.of)}.rotate(${s('pa')})`;
+    case 'incline':
+      return `${nodeToString(node.of)}.incline(${s('inclination')}, ${s('pa')})`;
+    case 'sum':
+      return `sum(${node.of.map(nodeToString).join(', ')})`;
+    case 'convolve':
+      return `convolve(${nodeToString(node.of[0])}, ${nodeToString(node.of[1])})`;
+  }
+}
+
+function substitute(node: ModelNode, values: ReadonlyMap<string, number>): ModelNode {
+  const out: Record<string, unknown> = { kind: node.kind };
+  for (const name of SLOT_NAMES[node.kind]) {
+    const s = (node as unknown as Record<string, Slot>)[name]!;
+    out[name] = isParam(s) ? (values.get(s.name) ?? s.value) : s;
+  }
+  if (node.kind === 'sum' || node.kind === 'convolve') out['of'] = node.of.map((c) => substitute(c, values));
+  else if ('of' in node) out['of'] = substitute(node.of, values);
+  return out as unknown as ModelNode;
+}
+
+// ---------- canonical comparison ----------
+
+interface NormFactor {
+  kind: FactorKind;
+  radial: boolean;
+  shape: number[];
+  /** A A^T (3 entries) for radial kinds, A (4 entries) otherwise. */
+  key: number[];
+}
+interface NormTerm {
+  flux: number;
+  east: number;
+  north: number;
+  factors: NormFactor[];
+}
+
+function closeTo(a: number, b: number, floor: number): boolean {
+  return Math.abs(a - b) <= Math.max(EQUALS_TOLERANCE * Math.max(Math.abs(a), Math.abs(b)), floor);
+}
+
+function normFactors(factors: readonly TermFactor[]): NormFactor[] {
+  const out: NormFactor[] = [];
+  let gauss: number[] | null = null;
+  for (const f of factors) {
+    const [a11, a12, a21, a22] = f.matrix;
+    const radial = FACTOR_KINDS[f.kind].radial;
+    const key = radial
+      ? [a11 * a11 + a12 * a12, a11 * a21 + a12 * a22, a21 * a21 + a22 * a22]
+      : [a11, a12, a21, a22];
+    if (f.kind === 'gaussian') {
+      // A Gaussian convolved with a Gaussian is the Gaussian whose quadratic form is the sum.
+      gauss = gauss === null ? key : gauss.map((g, i) => g + key[i]!);
+      continue;
+    }
+    out.push({ kind: f.kind, radial, shape: [...f.shape], key });
+  }
+  if (gauss !== null) out.push({ kind: 'gaussian', radial: true, shape: [], key: gauss });
+  return out;
+}
+
+function factorsEqual(a: NormFactor[], b: NormFactor[]): boolean {
+  if (a.length !== b.length) return false;
+  const used = new Array<boolean>(b.length).fill(false);
+  outer: for (const fa of a) {
+    for (let j = 0; j < b.length; j++) {
+      const fb = b[j]!;
+      if (used[j] || fb.kind !== fa.kind || fb.shape.length !== fa.shape.length) continue;
+      if (!fa.shape.every((x, i) => closeTo(x, fb.shape[i]!, 0))) continue;
+      const scale = Math.max(...fa.key.map(Math.abs), ...fb.key.map(Math.abs));
+      if (!fa.key.every((x, i) => closeTo(x, fb.key[i]!, EQUALS_TOLERANCE * scale + 1e-18))) continue;
+      used[j] = true;
+      continue outer;
+    }
+    return false;
+  }
+  return true;
+}
+
+function sameShape(a: NormTerm, b: NormTerm): boolean {
+  const scale = Math.max(Math.hypot(a.east, a.north), Math.hypot(b.east, b.north));
+  return (
+    closeTo(a.east, b.east, EQUALS_TOLERANCE * (scale + 1)) &&
+    closeTo(a.north, b.north, EQUALS_TOLERANCE * (scale + 1)) &&
+    factorsEqual(a.factors, b.factors)
+  );
+}
+
+function normalForm(terms: readonly Term[]): { terms: NormTerm[]; absFlux: number } {
+  const merged: NormTerm[] = [];
+  let absFlux = 0;
+  for (const t of terms) {
+    absFlux += Math.abs(t.flux);
+    const nt: NormTerm = { flux: t.flux, east: t.east, north: t.north, factors: normFactors(t.factors) };
+    const same = merged.find((m) => sameShape(m, nt));
+    if (same) same.flux += nt.flux;
+    else merged.push(nt);
+  }
+  return { terms: merged.filter((t) => Math.abs(t.flux) > EQUALS_TOLERANCE * absFlux), absFlux };
+}
+
+/**
+ * An immutable sky model: a tree of primitives and operators, evaluated through its canonical form.
+ * Build one with the primitive factories ({@link point}, {@link disk}, {@link gaussian}, {@link ring},
+ * {@link ellipse}) and combine with the methods below; every method returns a new model.
+ *
+ * @example
+ * ```ts
+ * const star = disk({ diameter: 2 }).weight(0.9).plus(point().weight(0.1).shift(5, 0));
+ * star.flux; // 1
+ * star.vis2([0], [0]); // Float64Array [1]
+ * ```
+ */
+export class Model {
+  /** The frozen plain-data tree of this model. */
+  readonly node: ModelNode;
+
+  /** @internal Use the factories; this checks every slot and freezes the model. */
+  constructor(node: ModelNode) {
+    const frozen = freezeDeep(node);
+    const params = new Map<string, Param>();
+    collectParams(frozen, params, frozen.kind);
+    const terms = canonicalise(frozen);
+    this.node = frozen;
+    caches.set(this, { terms, params });
+    Object.freeze(this);
+  }
+
+  private get cache(): Cache {
+    return caches.get(this)!;
+  }
+
+  // ---------- operators ----------
+
+  /**
+   * Multiplies the flux by `flux` (negative allowed: a gap is a ring of negative flux).
+   * @param flux - flux factor (plain number or param)
+   * @returns a new model
+   */
+  weight(flux: Slot): Model {
+    return new Model({ kind: 'weight', flux, of: this.node });
+  }
+
+  /**
+   * Moves the model by (east, north).
+   * @param east - offset towards east (increasing right ascension), mas
+   * @param north - offset towards north, mas
+   * @returns a new model; its visibility phase decreases along the shift: V' = V exp(-2 pi i (u east + v north))
+   */
+  shift(east: Slot, north: Slot): Model {
+    return new Model({ kind: 'shift', east, north, of: this.node });
+  }
+
+  /**
+   * Stretches the image by factors along east and north, keeping the flux: I'(e, n) = I(e/se, n/sn) / (se sn).
+   * @param east - stretch factor along east (non-zero; negative mirrors)
+   * @param north - stretch factor along north (non-zero)
+   * @returns a new model with V'(u, v) = V(se u, sn v)
+   */
+  stretch(east: Slot, north: Slot): Model {
+    return new Model({ kind: 'stretch', east, north, of: this.node });
+  }
+
+  /**
+   * Turns the image about the origin by `pa` degrees from north towards east.
+   * @param pa - position angle, degrees (north = 0, east = 90)
+   * @returns a new model with V'(u, v) = V(u cos pa - v sin pa, u sin pa + v cos pa)
+   */
+  rotate(pa: Slot): Model {
+    return new Model({ kind: 'rotate', pa, of: this.node });
+  }
+
+  /**
+   * Inclines a face-on shape: stretch(cos i, 1) then rotate(pa), so a circle becomes an ellipse with
+   * minor/major = cos i and its major axis at position angle `pa`.
+   * @param inclination - degrees in [0, 90]; 0 = face-on
+   * @param pa - position angle of the major axis, degrees east of north
+   * @returns a new model
+   */
+  incline(inclination: Slot, pa: Slot): Model {
+    return new Model({ kind: 'incline', inclination, pa, of: this.node });
+  }
+
+  /**
+   * Adds another model (fluxes add).
+   * @param other - the model to add
+   * @returns the sum
+   */
+  plus(other: Model): Model {
+    return sum(this, other);
+  }
+
+  /**
+   * Convolves with another model (visibilities multiply; fluxes multiply).
+   * @param other - the other model
+   * @returns the convolution
+   */
+  convolve(other: Model): Model {
+    return convolve(this, other);
+  }
+
+  // ---------- canonical form ----------
+
+  /** Total (unnormalised) flux F(0, 0) at the parameters' current values. */
+  get flux(): number {
+    let f = 0;
+    for (const t of this.cache.terms) f += t.flux.v;
+    return f;
+  }
+
+  /**
+   * The canonical terms at the parameters' current values (frozen).
+   * @returns terms in the order the tree lists them
+   */
+  terms(): readonly Term[] {
+    return freezeDeep(
+      this.cache.terms.map((t) => ({
+        flux: t.flux.v,
+        east: t.east.v,
+        north: t.north.v,
+        factors: t.factors.map((f) => ({
+          kind: f.kind,
+          shape: f.shape.map((s) => s.v),
+          matrix: [f.a[0].v, f.a[1].v, f.a[2].v, f.a[3].v] as const,
+        })),
+      })),
+    );
+  }
+
+  /**
+   * Canonical equality: true when both models have the same terms (in any order, equal terms merged, radial
+   * factors compared by A A^T so a rotated disk equals the disk), to the tolerance {@link EQUALS_TOLERANCE}.
+   * Parameters are compared by their current values.
+   * @param other - the model to compare with
+   */
+  equals(other: Model): boolean {
+    const a = normalForm(this.terms());
+    const b = normalForm(other.terms());
+    if (a.terms.length !== b.terms.length) return false;
+    const used = new Array<boolean>(b.terms.length).fill(false);
+    const fluxScale = Math.max(a.absFlux, b.absFlux);
+    outer: for (const ta of a.terms) {
+      for (let j = 0; j < b.terms.length; j++) {
+        const tb = b.terms[j]!;
+        if (used[j] || !closeTo(ta.flux, tb.flux, EQUALS_TOLERANCE * fluxScale) || !sameShape(ta, tb))
+          continue;
+        used[j] = true;
+        continue outer;
+      }
+      return false;
+    }
+    return true;
+  }
+
+  /** A readable TypeScript expression that rebuilds this model with uvsky's factories. */
+  toString(): string {
+    return nodeToString(this.node);
+  }
+
+  // ---------- parameters ----------
+
+  /** Names of the free (not fixed) parameters, in order of first appearance in the tree. */
+  parameters(): readonly string[] {
+    return Object.freeze([...this.cache.params.values()].filter((p) => !p.fixed).map((p) => p.name));
+  }
+
+  /** Every parameter (free and fixed) by name, in order of first appearance. */
+  parameterInfo(): readonly Param[] {
+    return Object.freeze([...this.cache.params.values()]);
+  }
+
+  /**
+   * The model with every parameter replaced by a number.
+   * @param values - free-parameter values in the order of {@link Model.parameters}, or a record by name
+   *   (names left out keep their current value; fixed parameters keep theirs)
+   * @returns a plain numeric model
+   * @throws ModelError when a value is outside the parameter's bounds, a name is unknown, or the array length is wrong
+   */
+  at(values: ArrayLike<number> | Readonly<Record<string, number>>): Model {
+    const free = [...this.cache.params.values()].filter((p) => !p.fixed);
+    const map = new Map<string, number>();
+    if (typeof (values as ArrayLike<number>).length === 'number') {
+      const arr = values as ArrayLike<number>;
+      if (arr.length !== free.length) {
+        throw new ModelError(
+          `at: got ${arr.length} values but the model has ${free.length} free parameters (${free.map((p) => p.name).join(', ')})`,
+          { argument: 'values' },
+        );
+      }
+      for (let i = 0; i < free.length; i++) map.set(free[i]!.name, arr[i]!);
+    } else {
+      for (const [name, x] of Object.entries(values as Record<string, number>)) {
+        const p = this.cache.params.get(name);
+        if (p === undefined || p.fixed) {
+          throw new ModelError(
+            `at: '${name}' is not a free parameter of this model; free parameters: ${free.map((q) => q.name).join(', ') || 'none'}`,
+            { parameter: name },
+          );
+        }
+        map.set(name, x);
+      }
+    }
+    for (const [name, x] of map) {
+      const p = this.cache.params.get(name)!;
+      if (typeof x !== 'number' || !Number.isFinite(x) || x < p.min || x > p.max) {
+        throw new ModelError(`at: parameter '${name}' = ${x} lies outside its bounds [${p.min}, ${p.max}]`, {
+          parameter: name,
+        });
+      }
+    }
+    // check the slot domains with the parameters still in place, so errors name them
+    const index = new Map(free.map((p, i) => [p.name, i] as const));
+    const vec = Float64Array.from(free, (p) => map.get(p.name) ?? p.value);
+    canonicalise(this.node, { index, values: vec, gradients: false });
+    return new Model(substitute(this.node, map));
+  }
+
+  // ---------- evaluation ----------
+
+  /** @internal The compiled plan at the parameters' current values. */
+  plan(): Plan {
+    const c = this.cache;
+    if (c.plan === undefined) c.plan = compilePlan(c.terms, this.node.kind);
+    return c.plan;
+  }
+
+  /**
+   * The normalised complex visibility at one point.
+   * @param u - spatial frequency east, cycles per radian
+   * @param v - spatial frequency north, cycles per radian
+   * @returns V(u, v) as a complex.js Complex
+   * @example
+   * ```ts
+   * point().shift(1, 0).visibility(1e8, 0).arg(); // -2 pi 1e8 * 4.8481e-9 rad, wrapped: -3.0462
+   * ```
+   */
+  visibility(u: number, v: number): Complex {
+    const r = this.visibilities([u], [v]);
+    return new Complex(r.re[0]!, r.im[0]!);
+  }
+
+  /**
+   * Normalised complex visibilities at many points.
+   * @param u - spatial frequencies east, cycles per radian
+   * @param v - spatial frequencies north, cycles per radian (same length)
+   * @param out - optional output columns to reuse (each of the input length; may alias u or v)
+   * @returns `{ re, im }` (the `out` given, filled)
+   */
+  visibilities(u: ArrayLike<number>, v: ArrayLike<number>, out?: ComplexColumns): ComplexColumns {
+    const fn = 'visibilities';
+    let uu = toF64(u, fn, 'u');
+    let vv = toF64(v, fn, 'v');
+    const n = sameLength(fn, ['u', 'v'], [uu, vv]);
+    const re = out ? checkOut(fn, out.re, n, 'out.re') : new Float64Array(n);
+    const im = out ? checkOut(fn, out.im, n, 'out.im') : new Float64Array(n);
+    uu = unalias(uu, [re, im]);
+    vv = unalias(vv, [re, im]);
+    runPlan(this.plan(), uu, vv, re, im, n);
+    return out ?? { re, im };
+  }
+
+  /**
+   * Squared visibility amplitudes |V|^2 (OIFITS VIS2DATA).
+   * @param u - spatial frequencies east, cycles per radian
+   * @param v - spatial frequencies north, cycles per radian
+   * @param out - optional output of the input length
+   */
+  vis2(u: ArrayLike<number>, v: ArrayLike<number>, out?: Float64Array): Float64Array {
+    const r = this.visibilities(u, v);
+    const o = out ? checkOut('vis2', out, r.re.length, 'out') : r.re;
+    for (let i = 0; i < r.re.length; i++) o[i] = r.re[i]! * r.re[i]! + r.im[i]! * r.im[i]!;
+    return o;
+  }
+
+  /** Visibility amplitudes |V| (OIFITS VISAMP for a normalised visibility). */
+  visamp(u: ArrayLike<number>, v: ArrayLike<number>, out?: Float64Array): Float64Array {
+    const r = this.visibilities(u, v);
+    const o = out ? checkOut('visamp', out, r.re.length, 'out') : r.re;
+    for (let i = 0; i < r.re.length; i++) o[i] = Math.hypot(r.re[i]!, r.im[i]!);
+    return o;
+  }
+
+  /** Visibility phases arg V in degrees, wrapped to (-180, 180] (OIFITS VISPHI). */
+  visphi(u: ArrayLike<number>, v: ArrayLike<number>, out?: Float64Array): Float64Array {
+    const r = this.visibilities(u, v);
+    const o = out ? checkOut('visphi', out, r.re.length, 'out') : r.re;
+    for (let i = 0; i < r.re.length; i++) o[i] = phaseDeg(r.im[i]!, r.re[i]!);
+    return o;
+  }
+
+  /**
+   * The bispectrum (triple product) V(u1, v1) V(u2, v2) V(-(u1+u2), -(v1+v2)) of each triangle, with the
+   * baselines AB = (u1, v1) and BC = (u2, v2) as in OI_T3's U1COORD..V2COORD.
+   * @param u1 - first baseline east, cycles per radian
+   * @param v1 - first baseline north
+   * @param u2 - second baseline east
+   * @param v2 - second baseline north
+   * @param out - optional output columns of the input length
+   */
+  bispectrum(
+    u1: ArrayLike<number>,
+    v1: ArrayLike<number>,
+    u2: ArrayLike<number>,
+    v2: ArrayLike<number>,
+    out?: ComplexColumns,
+  ): ComplexColumns {
+    const fn = 'bispectrum';
+    const a = toF64(u1, fn, 'u1');
+    const b = toF64(v1, fn, 'v1');
+    const c = toF64(u2, fn, 'u2');
+    const d = toF64(v2, fn, 'v2');
+    const n = sameLength(fn, ['u1', 'v1', 'u2', 'v2'], [a, b, c, d]);
+    const re = out ? checkOut(fn, out.re, n, 'out.re') : new Float64Array(n);
+    const im = out ? checkOut(fn, out.im, n, 'out.im') : new Float64Array(n);
+    const u3 = new Float64Array(n);
+    const v3 = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      u3[i] = -(a[i]! + c[i]!);
+      v3[i] = -(b[i]! + d[i]!);
+    }
+    const plan = this.plan();
+    const r1 = new Float64Array(n);
+    const i1 = new Float64Array(n);
+    const r2 = new Float64Array(n);
+    const i2 = new Float64Array(n);
+    runPlan(plan, a, b, r1, i1, n);
+    runPlan(plan, c, d, r2, i2, n);
+    // the third baseline's visibility goes into u3, v3's own buffers once they are read
+    const r3 = new Float64Array(n);
+    const i3 = new Float64Array(n);
+    runPlan(plan, u3, v3, r3, i3, n);
+    for (let i = 0; i < n; i++) {
+      const xr = r1[i]! * r2[i]! - i1[i]! * i2[i]!;
+      const xi = r1[i]! * i2[i]! + i1[i]! * r2[i]!;
+      re[i] = xr * r3[i]! - xi * i3[i]!;
+      im[i] = xr * i3[i]! + xi * r3[i]!;
+    }
+    return out ?? { re, im };
+  }
+
+  /**
+   * Closure phases (OIFITS T3PHI): the argument of the bispectrum in degrees, wrapped to (-180, 180].
+   * @returns a Float64Array of the input length
+   */
+  closurePhase(
+    u1: ArrayLike<number>,
+    v1: ArrayLike<number>,
+    u2: ArrayLike<number>,
+    v2: ArrayLike<number>,
+    out?: Float64Array,
+  ): Float64Array {
+    const t = this.bispectrum(u1, v1, u2, v2);
+    const o = out ? checkOut('closurePhase', out, t.re.length, 'out') : t.re;
+    for (let i = 0; i < t.re.length; i++) o[i] = phaseDeg(t.im[i]!, t.re[i]!);
+    return o;
+  }
+
+  /** Triple-product amplitudes |T3| (OIFITS T3AMP). */
+  t3amp(
+    u1: ArrayLike<number>,
+    v1: ArrayLike<number>,
+    u2: ArrayLike<number>,
+    v2: ArrayLike<number>,
+    out?: Float64Array,
+  ): Float64Array {
+    const t = this.bispectrum(u1, v1, u2, v2);
+    const o = out ? checkOut('t3amp', out, t.re.length, 'out') : t.re;
+    for (let i = 0; i < t.re.length; i++) o[i] = Math.hypot(t.re[i]!, t.im[i]!);
+    return o;
+  }
+}
+
+/** atan2 in degrees wrapped to (-180, 180]: -180 maps to +180. */
+function phaseDeg(y: number, x: number): number {
+  const p = Math.atan2(y, x) * DEG_PER_RAD;
+  return p <= -180 ? p + 360 : p;
+}
+
+// ---------- factories ----------
+
+/**
+ * A point source of flux 1 at the origin.
+ * @returns a model with V = 1 everywhere
+ * @example
+ * ```ts
+ * point().vis2([1e8], [0]); // Float64Array [1]
+ * ```
+ */
+/* @__NO_SIDE_EFFECTS__ */
+export function point(): Model {
+  return new Model({ kind: 'point' });
+}
+
+/**
+ * A uniform disk of flux 1 centred on the origin.
+ * @param options - `diameter`: angular diameter in mas (>= 0)
+ * @returns a model with V(q) = 2 J1(x)/x, x = pi * diameter * q
+ *
+ * Notes: first null at q * diameter = 1.21967 (the first zero of J1, 3.831706, over pi).
+ * @example
+ * ```ts
+ * disk({ diameter: 2 }).vis2([1e8], [0]); // Float64Array [0.0766...]
+ * ```
+ */
+/* @__NO_SIDE_EFFECTS__ */
+export function disk(options: { readonly diameter: Slot }): Model {
+  return new Model({ kind: 'disk', diameter: options?.diameter });
+}
+
+/**
+ * A circular Gaussian of flux 1 centred on the origin.
+ * @param options - `fwhm`: full width at half maximum in mas (>= 0; never sigma)
+ * @returns a model with V(q) = exp(-(pi fwhm q)^2 / (4 ln 2))
+ */
+/* @__NO_SIDE_EFFECTS__ */
+export function gaussian(options: { readonly fwhm: Slot }): Model {
+  return new Model({ kind: 'gaussian', fwhm: options?.fwhm });
+}
+
+/**
+ * An infinitely thin ring of flux 1 centred on the origin.
+ * @param options - `diameter`: ring diameter in mas (>= 0)
+ * @returns a model with V(q) = J0(pi * diameter * q)
+ */
+/* @__NO_SIDE_EFFECTS__ */
+export function ring(options: { readonly diameter: Slot }): Model {
+  return new Model({ kind: 'ring', diameter: options?.diameter });
+}
+
+/**
+ * A uniform elliptical disk of flux 1 centred on the origin.
+ * @param options - `major`, `minor`: full axis lengths in mas (0 <= minor <= major); `pa`: position angle of
+ *   the major axis in degrees east of north
+ * @returns the disk of diameter `major`, stretched by minor/major across the major axis and turned to `pa`
+ */
+/* @__NO_SIDE_EFFECTS__ */
+export function ellipse(options: { readonly major: Slot; readonly minor: Slot; readonly pa: Slot }): Model {
+  return new Model({ kind: 'ellipse', major: options?.major, minor: options?.minor, pa: options?.pa });
+}
+
+function checkModel(m: unknown, fn: string, where: string): Model {
+  if (!(m instanceof Model)) {
+    throw new ModelError(`${fn}: ${where} is not a uvsky Model (build one with point(), disk(), ...)`, {
+      argument: where,
+    });
+  }
+  return m;
+}
+
+/**
+ * The sum of models: fluxes add, F = sum F_k.
+ * @param models - one or more models
+ * @returns a model whose normalised visibility is (sum F_k) / (sum of fluxes)
+ */
+/* @__NO_SIDE_EFFECTS__ */
+export function sum(...models: Model[]): Model {
+  if (models.length === 0) throw new ModelError('sum: give at least one model', { argument: 'models' });
+  const nodes = models.map((m, i) => checkModel(m, 'sum', `models[${i}]`).node);
+  return new Model({ kind: 'sum', of: nodes });
+}
+
+/**
+ * The convolution of two models: F = F_a F_b (convolution theorem); the flux is the product of the fluxes.
+ * @param a - first model
+ * @param b - second model
+ */
+/* @__NO_SIDE_EFFECTS__ */
+export function convolve(a: Model, b: Model): Model {
+  return new Model({
+    kind: 'convolve',
+    of: [checkModel(a, 'convolve', 'a').node, checkModel(b, 'convolve', 'b').node],
+  });
+}

@@ -1,0 +1,139 @@
+/**
+ * Compiled evaluation plans: a canonical form turned into numbers in radians and kernel codes, run over columns
+ * of spatial frequencies with no allocation per point.
+ *
+ * @module
+ */
+import { ModelError } from '../errors.js';
+import {
+  addAmplitudeTerm,
+  addPointTerm,
+  addRadialTerm,
+  mulRadial,
+  RADIAL_GAUSSIAN,
+  RADIAL_THIN_RING,
+  RADIAL_UNIFORM_DISK,
+} from '../kernels/terms.js';
+import { RAD_PER_MAS } from '../units/index.js';
+import type { DualTerm, FactorKind } from './canonical.js';
+
+/**
+ * Below this fraction of the sum of |flux| the total flux counts as zero and the model cannot be normalised.
+ * (1e-10: cancellation to that depth leaves fewer than six significant digits in any normalised visibility.)
+ */
+export const ZERO_FLUX_FRACTION = 1e-10;
+
+const RADIAL_CODES: Readonly<Record<FactorKind, number>> = {
+  uniformDisk: RADIAL_UNIFORM_DISK,
+  gaussian: RADIAL_GAUSSIAN,
+  thinRing: RADIAL_THIN_RING,
+};
+
+/** A factor ready for a kernel: M = A A^T in rad^2 for radial kinds. */
+interface PlanFactor {
+  readonly code: number;
+  readonly m11: number;
+  readonly m12: number;
+  readonly m22: number;
+}
+
+interface PlanTerm {
+  readonly flux: number;
+  /** Shift in radians. */
+  readonly e0: number;
+  readonly n0: number;
+  readonly factors: readonly PlanFactor[];
+}
+
+/** A compiled model: terms in radians with kernel codes, the total flux, and scratch buffers. */
+export interface Plan {
+  readonly terms: readonly PlanTerm[];
+  /** Sum of the term fluxes (the unnormalised F(0, 0)). */
+  readonly totalFlux: number;
+  /** Scratch held by the plan and grown when needed (not shared across threads). */
+  scratch: Float64Array;
+}
+
+/**
+ * Compiles canonical terms into a plan.
+ *
+ * @param terms - canonical terms (values only are used)
+ * @param path - model path for error messages
+ * @throws ModelError when the total flux is zero (|sum flux| < ZERO_FLUX_FRACTION * sum |flux|)
+ */
+export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
+  let total = 0;
+  let absTotal = 0;
+  const out: PlanTerm[] = [];
+  for (const t of terms) {
+    total += t.flux.v;
+    absTotal += Math.abs(t.flux.v);
+    if (t.flux.v === 0) continue;
+    const factors: PlanFactor[] = t.factors.map((f) => {
+      const a = f.a;
+      const s = RAD_PER_MAS * RAD_PER_MAS;
+      const a11 = a[0].v;
+      const a12 = a[1].v;
+      const a21 = a[2].v;
+      const a22 = a[3].v;
+      // |A^T q|^2 = q^T (A A^T) q
+      return {
+        code: RADIAL_CODES[f.kind],
+        m11: (a11 * a11 + a12 * a12) * s,
+        m12: (a11 * a21 + a12 * a22) * s,
+        m22: (a21 * a21 + a22 * a22) * s,
+      };
+    });
+    out.push({ flux: t.flux.v, e0: t.east.v * RAD_PER_MAS, n0: t.north.v * RAD_PER_MAS, factors });
+  }
+  if (!(Math.abs(total) >= ZERO_FLUX_FRACTION * absTotal) || absTotal === 0) {
+    throw new ModelError(
+      `${path}: the total flux is ${total} (sum of |flux| ${absTotal}), so visibilities cannot be normalised; ` +
+        `give the model a total flux whose magnitude is at least ${ZERO_FLUX_FRACTION} of the sum of |flux|`,
+      { modelPath: path },
+    );
+  }
+  return { terms: out, totalFlux: total, scratch: new Float64Array(0) };
+}
+
+/**
+ * Evaluates the normalised complex visibility of a plan into `re`, `im`.
+ *
+ * @param plan - a compiled plan
+ * @param u - spatial frequencies east, cycles per radian
+ * @param v - spatial frequencies north, cycles per radian
+ * @param re - output real parts (length >= n); may not alias u or v
+ * @param im - output imaginary parts (length >= n)
+ * @param n - number of points
+ */
+export function runPlan(
+  plan: Plan,
+  u: Float64Array,
+  v: Float64Array,
+  re: Float64Array,
+  im: Float64Array,
+  n: number,
+): void {
+  re.fill(0, 0, n);
+  im.fill(0, 0, n);
+  for (const t of plan.terms) {
+    const nf = t.factors.length;
+    if (nf === 0) {
+      addPointTerm(re, im, u, v, n, t.flux, t.e0, t.n0);
+    } else if (nf === 1) {
+      const f = t.factors[0]!;
+      addRadialTerm(f.code, re, im, u, v, n, t.flux, f.m11, f.m12, f.m22, t.e0, t.n0);
+    } else {
+      if (plan.scratch.length < n) plan.scratch = new Float64Array(n);
+      const amp = plan.scratch;
+      amp.fill(t.flux, 0, n);
+      for (const f of t.factors) mulRadial(f.code, amp, u, v, n, f.m11, f.m12, f.m22);
+      addAmplitudeTerm(re, im, amp, u, v, n, t.e0, t.n0);
+    }
+  }
+  const k = 1 / plan.totalFlux;
+  for (let i = 0; i < n; i++) {
+    re[i] = re[i]! * k;
+    im[i] = im[i]! * k;
+  }
+}

@@ -1,0 +1,7 @@
+// Node CJS smoke test of the built package, required by its package name through the exports map.
+const { disk, point, sum } = require('uvsky');
+
+const v2 = sum(disk({ diameter: 2 }), point().weight(0.1).shift(3, 0)).vis2([0, 5e7], [0, 0]);
+if (Math.abs(v2[0] - 1) > 1e-12 || !(v2[1] > 0 && v2[1] < 1))
+  throw new Error(`node CJS smoke test: V^2 ${v2}`);
+console.log('node CJS smoke test passed');
