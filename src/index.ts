@@ -6,6 +6,16 @@
 export * from './errors.js';
 export { FACTOR_KINDS, type FactorKind } from './model/canonical.js';
 export {
+  type JsonObject,
+  type JsonValue,
+  MODEL_JSON_FORMAT,
+  MODEL_JSON_VERSION,
+  type ModelJSON,
+  modelFromJSON,
+  type NodeJSON,
+  type ParamJSON,
+} from './model/json.js';
+export {
   type ComplexColumns,
   convolve,
   disk,
@@ -22,4 +32,14 @@ export {
 export type * from './model/nodes.js';
 export { fixed, isParam, type Param, type ParamOptions, param, type Slot } from './model/param.js';
 export { ZERO_FLUX_FRACTION } from './model/plan.js';
+export {
+  type JacobianPoints,
+  jacobianMatrix,
+  type ObservableJacobian,
+  type ObservableName,
+  observableJacobian,
+  type VisibilityJacobian,
+  visibilityJacobian,
+} from './observe/jacobian.js';
+export { parameterVector } from './observe/parameters.js';
 export * from './units/index.js';
