@@ -141,7 +141,7 @@ function common(tables: readonly OiTable[], ix: Index, lk: Lookup): FlatCommon {
   const wavelength = new Float64Array(n);
   const band = new Float64Array(n);
   const flag = new Uint8Array(n);
-  const insname: string[] = new Array(n);
+  const insname: string[] = new Array<string>(n).fill('');
   tables.forEach((t, ti) => {
     const w = lk.wave.get(t.insname ?? '')!;
     const nw = w.eff.length;
@@ -152,11 +152,21 @@ function common(tables: readonly OiTable[], ix: Index, lk: Lookup): FlatCommon {
       wavelength[k] = w.eff[c]!;
       band[k] = w.band[c]!;
       flag[k] = f[ix.row[k]! * nw + c] === 1 ? 1 : 0;
-      insname[k] = ins;
     }
+    insname.fill(ins, ix.starts[ti]!, ix.starts[ti + 1]!);
   });
-  const targetId = Int32Array.from(gatherRow(tables, ix, 'TARGET_ID', 1, 0, -1));
-  const targetName = Array.from(targetId, (id) => lk.targetNames.get(id) ?? '');
+  const targetId = new Int32Array(gatherRow(tables, ix, 'TARGET_ID', 1, 0, -1));
+  const targetName: string[] = new Array<string>(n).fill('');
+  let lastId = Number.NaN;
+  let lastName = '';
+  for (let k = 0; k < n; k++) {
+    const id = targetId[k]!;
+    if (id !== lastId) {
+      lastId = id;
+      lastName = lk.targetNames.get(id) ?? '';
+    }
+    targetName[k] = lastName;
+  }
   return {
     length: n,
     wavelength,
@@ -180,20 +190,28 @@ function stationColumns(
   count: number,
 ): { sta: Int32Array[]; names: string[] } {
   const sta: Int32Array[] = [];
-  for (let s = 0; s < count; s++) sta.push(Int32Array.from(gatherRow(tables, ix, 'STA_INDEX', count, s, -1)));
-  const names: string[] = new Array(ix.row.length);
+  for (let s = 0; s < count; s++) sta.push(new Int32Array(gatherRow(tables, ix, 'STA_INDEX', count, s, -1)));
+  const names: string[] = new Array<string>(ix.row.length).fill('');
   tables.forEach((t, ti) => {
     const m = lk.stations.get(t.arrname ?? '');
-    const rowNames: string[] = [];
+    const rowNames: string[] = new Array<string>(t.nrows).fill('');
     const c = column(t, 'STA_INDEX');
     const src = c ? numeric(c) : [];
+    const cache = new Map<number, string>(); // station tuple -> name, since few distinct tuples repeat
     for (let r = 0; r < t.nrows; r++) {
-      const parts: string[] = [];
-      for (let s = 0; s < count; s++) {
-        const idx = src[r * count + s];
-        parts.push(idx === undefined ? '?' : (m?.get(idx) ?? String(idx)));
+      let key = 0;
+      for (let s = 0; s < count; s++) key = key * 65536 + ((src[r * count + s] ?? -1) & 0xffff);
+      let name = cache.get(key);
+      if (name === undefined) {
+        const parts: string[] = [];
+        for (let s = 0; s < count; s++) {
+          const idx = src[r * count + s];
+          parts.push(idx === undefined ? '?' : (m?.get(idx) ?? String(idx)));
+        }
+        name = parts.join('-');
+        cache.set(key, name);
       }
-      rowNames.push(parts.join('-'));
+      rowNames[r] = name;
     }
     for (let k = ix.starts[ti]!; k < ix.starts[ti + 1]!; k++) names[k] = rowNames[ix.row[k]!]!;
   });
@@ -293,7 +311,7 @@ export function flattenTables(
     ...cf,
     value: gatherChannel(tables.flux, ixf, 'FLUXDATA', lk),
     error: gatherChannel(tables.flux, ixf, 'FLUXERR', lk),
-    sta1: Int32Array.from(gatherRow(tables.flux, ixf, 'STA_INDEX', 1, 0, -1)),
+    sta1: new Int32Array(gatherRow(tables.flux, ixf, 'STA_INDEX', 1, 0, -1)),
   };
   return { vis2, vis, t3, flux };
 }

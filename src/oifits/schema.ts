@@ -53,8 +53,11 @@ export type ValueClass = 'float' | 'int' | 'logical' | 'string';
 export interface ColumnSpec {
   readonly name: string;
   readonly cls: ValueClass;
-  /** Elements per row: a number, `'NWAVE'` (channels of the referenced OI_WAVELENGTH), or `'string'`. */
-  readonly repeat: number | 'NWAVE' | 'string';
+  /**
+   * Elements per row: a number, `'NWAVE'` (channels of the referenced OI_WAVELENGTH), `'NWAVE2'` (NWAVE x
+   * NWAVE), or `'string'`.
+   */
+  readonly repeat: number | 'NWAVE' | 'NWAVE2' | 'string';
   /** TFORM the writer uses when it has to create the column. */
   readonly tform: string;
   readonly unit?: string;
@@ -237,6 +240,7 @@ export const SCHEMAS: Readonly<Record<OiTableName, Readonly<Record<number, Table
         f('IVIS', 'NWAVE', undefined, true),
         f('IVISERR', 'NWAVE', undefined, true),
         j('CORRINDX_IVIS', true),
+        { name: 'VISREFMAP', cls: 'logical', repeat: 'NWAVE2', tform: 'L', optional: true },
       ],
     },
   },

@@ -24,7 +24,7 @@ const CLASS_WORDS: Record<ColumnSpec['cls'], string> = {
 };
 
 /** The table definition that applies to a table, with a warning when its OI_REVN is not one we know. */
-export function specFor(t: OiTable, file: string, warnings: Warnings): TableSpec {
+export function specFor(t: OiTable, warnings: Warnings): TableSpec {
   const revs = SCHEMAS[t.extname];
   const spec = revs[t.revision];
   if (spec) return spec;
@@ -108,13 +108,14 @@ export function checkTableShape(t: OiTable, spec: TableSpec, file: string, warni
 
 function checkNwave(t: OiTable, spec: TableSpec, nwave: number, insname: string, file: string): void {
   for (const c of spec.columns) {
-    if (c.repeat !== 'NWAVE') continue;
+    if (c.repeat !== 'NWAVE' && c.repeat !== 'NWAVE2') continue;
+    const want = c.repeat === 'NWAVE' ? nwave : nwave * nwave;
     const col = column(t, c.name);
-    if (col && col.tform.repeat !== nwave) {
+    if (col && col.tform.repeat !== want) {
       fail(
         file,
         where(t, { column: c.name }),
-        `column ${c.name} has ${col.tform.repeat} elements per row (TFORM ${col.tform.repeat}${col.tform.code}), but OI_WAVELENGTH INSNAME = '${insname}' has ${nwave} channels; they must agree`,
+        `column ${c.name} has ${col.tform.repeat} elements per row (TFORM ${col.tform.repeat}${col.tform.code}), but OI_WAVELENGTH INSNAME = '${insname}' has ${nwave} channels, so it needs ${want}${c.repeat === 'NWAVE2' ? ' (NWAVE x NWAVE)' : ''}`,
       );
     }
   }
@@ -218,7 +219,7 @@ export function validateTables(
     ...tables.flux,
   ];
   for (const t of all) {
-    const spec = specFor(t, file, warnings);
+    const spec = specFor(t, warnings);
     specs.set(t, spec);
     checkTableShape(t, spec, file, warnings);
   }

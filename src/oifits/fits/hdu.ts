@@ -113,6 +113,13 @@ export function splitHdus(bytes: Uint8Array, file: string, warnings: Warnings): 
       `a FITS file is at least one 2880-byte block long, this one has ${bytes.length} bytes (FITS 4.0 section 3.1); the file is truncated or not FITS`,
     );
   }
+  if (String.fromCharCode(...bytes.subarray(0, 10)) !== 'SIMPLE  = ') {
+    fail(
+      file,
+      { hdu: 0, keyword: 'SIMPLE' },
+      'this is not a FITS file: a FITS file starts with the card SIMPLE = T (FITS 4.0 section 4.4.1.1)',
+    );
+  }
   const hdus: Hdu[] = [];
   let offset = 0;
   while (offset < bytes.length) {
