@@ -6,6 +6,40 @@
 export * from './errors.js';
 export { FACTOR_KINDS, type FactorKind } from './model/canonical.js';
 export {
+  type BlackbodyRatio,
+  blackbodyRatio,
+  CHECK_WAVELENGTH,
+  type ChromaticSlot,
+  type Coefficient,
+  isChromatic,
+  type PowerLawFlux,
+  type PowerLawSize,
+  powerLawFlux,
+  powerLawSize,
+  SECOND_RADIATION_CONSTANT,
+} from './model/chromatic-slot.js';
+export {
+  annulus,
+  background,
+  DEFAULT_PROFILE_MAX_FREQUENCY,
+  DEFAULT_PROFILE_SAMPLES,
+  exponential,
+  gaussianRing,
+  type LimbDarkeningLaw,
+  type LinearLaw,
+  limbDarkenedDisk,
+  linearLaw,
+  lorentzian,
+  modulatedRing,
+  type PowerLaw,
+  pixelImage,
+  powerLaw,
+  type QuadraticLaw,
+  quadraticLaw,
+  radialProfile,
+  uniformDiskEquivalent,
+} from './model/components.js';
+export {
   type JsonObject,
   type JsonValue,
   MODEL_JSON_FORMAT,
@@ -32,7 +66,9 @@ export {
 export type * from './model/nodes.js';
 export { fixed, isParam, type Param, type ParamOptions, param, type Slot } from './model/param.js';
 export { ZERO_FLUX_FRACTION } from './model/plan.js';
+export * from './observe/chromatic.js';
 export {
+  type JacobianBuffers,
   type JacobianPoints,
   jacobianMatrix,
   type ObservableJacobian,

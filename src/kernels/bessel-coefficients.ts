@@ -10,52 +10,60 @@
 // Q0_HANKEL: x Q_0(x), degree 14 in t = 144 / x^2, largest error 1.01e-20
 // P1_HANKEL: P_1(x), degree 12 in t = 144 / x^2, largest error 5.17e-20
 // Q1_HANKEL: x Q_1(x), degree 13 in t = 144 / x^2, largest error 4.28e-20
+// SIN_REDUCED: sin r = r + r^3 S(r^2) on |r| <= pi/4, degree 7 in r^2, largest error of the polynomial 9.25e-18
+// COS_REDUCED: cos r = 1 - r^2/2 + r^4 C(r^2) on |r| <= pi/4, degree 7 in r^2, largest error of the polynomial 2.35e-18
 
 /** J0_NEAR_ZERO: B(s), s = x^2 <= 4, with J0(x) / x^0 = 1 + s B(s). */
 export function j0NearZeroB(s: number): number {
-  let r = -1.4402307435523441e-22;
-  r = r * s + 7.23696162107036e-20;
-  r = r * s + -2.8968750445342866e-17;
-  r = r * s + 9.385966047172045e-15;
-  r = r * s + -2.4028075475074804e-12;
-  r = r * s + 4.709502797040193e-10;
-  r = r * s + -6.781684027777541e-8;
-  r = r * s + 6.7816840277777766e-6;
-  r = r * s + -0.00043402777777777775;
-  r = r * s + 0.015625;
-  r = r * s + -0.25;
-  return r;
+  const e0_0 = -0.25 + 0.015625 * s;
+  const e0_1 = -0.00043402777777777775 + 6.7816840277777766e-6 * s;
+  const e0_2 = -6.781684027777541e-8 + 4.709502797040193e-10 * s;
+  const e0_3 = -2.4028075475074804e-12 + 9.385966047172045e-15 * s;
+  const e0_4 = -2.8968750445342866e-17 + 7.23696162107036e-20 * s;
+  const s2 = s * s;
+  const e1_0 = e0_0 + e0_1 * s2;
+  const e1_1 = e0_2 + e0_3 * s2;
+  const e1_2 = e0_4 + -1.4402307435523441e-22 * s2;
+  const s4 = s2 * s2;
+  const e2_0 = e1_0 + e1_1 * s4;
+  const s8 = s4 * s4;
+  const e3_0 = e2_0 + e1_2 * s8;
+  return e3_0;
 }
 
 /** J1_NEAR_ZERO: B(s), s = x^2 <= 4, with J1(x) / x^1 = 1/2 + s B(s). */
 export function j1NearZeroB(s: number): number {
-  let r = -6.018658442412865e-24;
-  r = r * s + 3.2898948203497462e-21;
-  r = r * s + -1.4484407714383527e-18;
-  r = r * s + 5.214425742215146e-16;
-  r = r * s + -1.5017547176753037e-13;
-  r = r * s + 3.363930569323534e-11;
-  r = r * s + -5.65140335648139e-9;
-  r = r * s + 6.781684027777777e-7;
-  r = r * s + -5.425347222222222e-5;
-  r = r * s + 0.0026041666666666665;
-  r = r * s + -0.0625;
-  return r;
+  const e0_0 = -0.0625 + 0.0026041666666666665 * s;
+  const e0_1 = -5.425347222222222e-5 + 6.781684027777777e-7 * s;
+  const e0_2 = -5.65140335648139e-9 + 3.363930569323534e-11 * s;
+  const e0_3 = -1.5017547176753037e-13 + 5.214425742215146e-16 * s;
+  const e0_4 = -1.4484407714383527e-18 + 3.2898948203497462e-21 * s;
+  const s2 = s * s;
+  const e1_0 = e0_0 + e0_1 * s2;
+  const e1_1 = e0_2 + e0_3 * s2;
+  const e1_2 = e0_4 + -6.018658442412865e-24 * s2;
+  const s4 = s2 * s2;
+  const e2_0 = e1_0 + e1_1 * s4;
+  const s8 = s4 * s4;
+  const e3_0 = e2_0 + e1_2 * s8;
+  return e3_0;
 }
 
 /** J2_NEAR_ZERO: B(s), s = x^2 <= 4, with J2(x) / x^2 = 1/8 + s B(s). */
 export function j2NearZeroB(s: number): number {
-  let r = 1.3244955469590865e-22;
-  r = r * s + -6.579887044288854e-20;
-  r = r * s + 2.6071943570705233e-17;
-  r = r * s + -8.343081238437126e-15;
-  r = r * s + 2.102456604900847e-12;
-  r = r * s + -4.0367166831910696e-10;
-  r = r * s + 5.65140335648142e-8;
-  r = r * s + -5.4253472222222224e-6;
-  r = r * s + 0.0003255208333333333;
-  r = r * s + -0.010416666666666666;
-  return r;
+  const e0_0 = -0.010416666666666666 + 0.0003255208333333333 * s;
+  const e0_1 = -5.4253472222222224e-6 + 5.65140335648142e-8 * s;
+  const e0_2 = -4.0367166831910696e-10 + 2.102456604900847e-12 * s;
+  const e0_3 = -8.343081238437126e-15 + 2.6071943570705233e-17 * s;
+  const e0_4 = -6.579887044288854e-20 + 1.3244955469590865e-22 * s;
+  const s2 = s * s;
+  const e1_0 = e0_0 + e0_1 * s2;
+  const e1_1 = e0_2 + e0_3 * s2;
+  const s4 = s2 * s2;
+  const e2_0 = e1_0 + e1_1 * s4;
+  const s8 = s4 * s4;
+  const e3_0 = e2_0 + e0_4 * s8;
+  return e3_0;
 }
 
 /** J0_PIECES: 15 coefficients per piece [k, k + 1], k = 2 .. 11, in t = x - (k + 1/2). */
@@ -102,21 +110,24 @@ const J0_PIECES = new Float64Array([
 /** J0(x) on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2). */
 export function j0Piece(k: number, t: number): number {
   const o = k * 15;
-  let r = J0_PIECES[o + 14]!;
-  r = r * t + J0_PIECES[o + 13]!;
-  r = r * t + J0_PIECES[o + 12]!;
-  r = r * t + J0_PIECES[o + 11]!;
-  r = r * t + J0_PIECES[o + 10]!;
-  r = r * t + J0_PIECES[o + 9]!;
-  r = r * t + J0_PIECES[o + 8]!;
-  r = r * t + J0_PIECES[o + 7]!;
-  r = r * t + J0_PIECES[o + 6]!;
-  r = r * t + J0_PIECES[o + 5]!;
-  r = r * t + J0_PIECES[o + 4]!;
-  r = r * t + J0_PIECES[o + 3]!;
-  r = r * t + J0_PIECES[o + 2]!;
-  r = r * t + J0_PIECES[o + 1]!;
-  return r * t + J0_PIECES[o]!;
+  const e0_0 = J0_PIECES[o]! + J0_PIECES[o + 1]! * t;
+  const e0_1 = J0_PIECES[o + 2]! + J0_PIECES[o + 3]! * t;
+  const e0_2 = J0_PIECES[o + 4]! + J0_PIECES[o + 5]! * t;
+  const e0_3 = J0_PIECES[o + 6]! + J0_PIECES[o + 7]! * t;
+  const e0_4 = J0_PIECES[o + 8]! + J0_PIECES[o + 9]! * t;
+  const e0_5 = J0_PIECES[o + 10]! + J0_PIECES[o + 11]! * t;
+  const e0_6 = J0_PIECES[o + 12]! + J0_PIECES[o + 13]! * t;
+  const t2 = t * t;
+  const e1_0 = e0_0 + e0_1 * t2;
+  const e1_1 = e0_2 + e0_3 * t2;
+  const e1_2 = e0_4 + e0_5 * t2;
+  const e1_3 = e0_6 + J0_PIECES[o + 14]! * t2;
+  const t4 = t2 * t2;
+  const e2_0 = e1_0 + e1_1 * t4;
+  const e2_1 = e1_2 + e1_3 * t4;
+  const t8 = t4 * t4;
+  const e3_0 = e2_0 + e2_1 * t8;
+  return e3_0;
 }
 
 /** J1_PIECES: 15 coefficients per piece [k, k + 1], k = 2 .. 11, in t = x - (k + 1/2). */
@@ -163,94 +174,140 @@ const J1_PIECES = new Float64Array([
 /** J1(x) on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2). */
 export function j1Piece(k: number, t: number): number {
   const o = k * 15;
-  let r = J1_PIECES[o + 14]!;
-  r = r * t + J1_PIECES[o + 13]!;
-  r = r * t + J1_PIECES[o + 12]!;
-  r = r * t + J1_PIECES[o + 11]!;
-  r = r * t + J1_PIECES[o + 10]!;
-  r = r * t + J1_PIECES[o + 9]!;
-  r = r * t + J1_PIECES[o + 8]!;
-  r = r * t + J1_PIECES[o + 7]!;
-  r = r * t + J1_PIECES[o + 6]!;
-  r = r * t + J1_PIECES[o + 5]!;
-  r = r * t + J1_PIECES[o + 4]!;
-  r = r * t + J1_PIECES[o + 3]!;
-  r = r * t + J1_PIECES[o + 2]!;
-  r = r * t + J1_PIECES[o + 1]!;
-  return r * t + J1_PIECES[o]!;
+  const e0_0 = J1_PIECES[o]! + J1_PIECES[o + 1]! * t;
+  const e0_1 = J1_PIECES[o + 2]! + J1_PIECES[o + 3]! * t;
+  const e0_2 = J1_PIECES[o + 4]! + J1_PIECES[o + 5]! * t;
+  const e0_3 = J1_PIECES[o + 6]! + J1_PIECES[o + 7]! * t;
+  const e0_4 = J1_PIECES[o + 8]! + J1_PIECES[o + 9]! * t;
+  const e0_5 = J1_PIECES[o + 10]! + J1_PIECES[o + 11]! * t;
+  const e0_6 = J1_PIECES[o + 12]! + J1_PIECES[o + 13]! * t;
+  const t2 = t * t;
+  const e1_0 = e0_0 + e0_1 * t2;
+  const e1_1 = e0_2 + e0_3 * t2;
+  const e1_2 = e0_4 + e0_5 * t2;
+  const e1_3 = e0_6 + J1_PIECES[o + 14]! * t2;
+  const t4 = t2 * t2;
+  const e2_0 = e1_0 + e1_1 * t4;
+  const e2_1 = e1_2 + e1_3 * t4;
+  const t8 = t4 * t4;
+  const e3_0 = e2_0 + e2_1 * t8;
+  return e3_0;
 }
 
 /** P0_HANKEL: P_0(x) for x >= 12, t = 144 / x^2. */
 export function p0Hankel(t: number): number {
-  let r = 1.1346415020610493e-13;
-  r = r * t + -9.46486281309789e-13;
-  r = r * t + 3.945630464359325e-12;
-  r = r * t + -1.1738088462675368e-11;
-  r = r * t + 3.1314583118615395e-11;
-  r = r * t + -9.147191290545634e-11;
-  r = r * t + 3.404054118045727e-10;
-  r = r * t + -1.7767665390287325e-9;
-  r = r * t + 1.412627042193411e-8;
-  r = r * t + -1.917295666961793e-7;
-  r = r * t + 5.4085696184710374e-6;
-  r = r * t + -0.00048828124999999935;
-  r = r * t + 1.0;
-  return r;
+  const e0_0 = 1.0 + -0.00048828124999999935 * t;
+  const e0_1 = 5.4085696184710374e-6 + -1.917295666961793e-7 * t;
+  const e0_2 = 1.412627042193411e-8 + -1.7767665390287325e-9 * t;
+  const e0_3 = 3.404054118045727e-10 + -9.147191290545634e-11 * t;
+  const e0_4 = 3.1314583118615395e-11 + -1.1738088462675368e-11 * t;
+  const e0_5 = 3.945630464359325e-12 + -9.46486281309789e-13 * t;
+  const t2 = t * t;
+  const e1_0 = e0_0 + e0_1 * t2;
+  const e1_1 = e0_2 + e0_3 * t2;
+  const e1_2 = e0_4 + e0_5 * t2;
+  const t4 = t2 * t2;
+  const e2_0 = e1_0 + e1_1 * t4;
+  const e2_1 = e1_2 + 1.1346415020610493e-13 * t4;
+  const t8 = t4 * t4;
+  const e3_0 = e2_0 + e2_1 * t8;
+  return e3_0;
 }
 
 /** Q0_HANKEL: x Q_0(x) for x >= 12, t = 144 / x^2. */
 export function q0Hankel(t: number): number {
-  let r = -2.8675820339532863e-13;
-  r = r * t + 2.5353508599827305e-12;
-  r = r * t + -1.0761491694497388e-11;
-  r = r * t + 3.0068255838228114e-11;
-  r = r * t + -6.547008251113991e-11;
-  r = r * t + 1.2867006325923093e-10;
-  r = r * t + -2.6460136329712254e-10;
-  r = r * t + 6.468041027699253e-10;
-  r = r * t + -2.0473143616913966e-9;
-  r = r * t + 8.904318689196788e-9;
-  r = r * t + -5.670131340067123e-8;
-  r = r * t + 5.786124444670895e-7;
-  r = r * t + -1.0952353477464827e-5;
-  r = r * t + 0.0005086263020833332;
-  r = r * t + -0.125;
-  return r;
+  const e0_0 = -0.125 + 0.0005086263020833332 * t;
+  const e0_1 = -1.0952353477464827e-5 + 5.786124444670895e-7 * t;
+  const e0_2 = -5.670131340067123e-8 + 8.904318689196788e-9 * t;
+  const e0_3 = -2.0473143616913966e-9 + 6.468041027699253e-10 * t;
+  const e0_4 = -2.6460136329712254e-10 + 1.2867006325923093e-10 * t;
+  const e0_5 = -6.547008251113991e-11 + 3.0068255838228114e-11 * t;
+  const e0_6 = -1.0761491694497388e-11 + 2.5353508599827305e-12 * t;
+  const t2 = t * t;
+  const e1_0 = e0_0 + e0_1 * t2;
+  const e1_1 = e0_2 + e0_3 * t2;
+  const e1_2 = e0_4 + e0_5 * t2;
+  const e1_3 = e0_6 + -2.8675820339532863e-13 * t2;
+  const t4 = t2 * t2;
+  const e2_0 = e1_0 + e1_1 * t4;
+  const e2_1 = e1_2 + e1_3 * t4;
+  const t8 = t4 * t4;
+  const e3_0 = e2_0 + e2_1 * t8;
+  return e3_0;
 }
 
 /** P1_HANKEL: P_1(x) for x >= 12, t = 144 / x^2. */
 export function p1Hankel(t: number): number {
-  let r = -1.19635506953054e-13;
-  r = r * t + 9.989500951728673e-13;
-  r = r * t + -4.171339050362376e-12;
-  r = r * t + 1.2446317120678045e-11;
-  r = r * t + -3.3373417473815167e-11;
-  r = r * t + 9.827415901935597e-11;
-  r = r * t + -3.7001832147961916e-10;
-  r = r * t + 1.9637985394880053e-9;
-  r = r * t + -1.6009773971299857e-8;
-  r = r * t + 2.265894880232325e-7;
-  r = r * t + -6.953875223757086e-6;
-  r = r * t + 0.0008138020833333327;
-  r = r * t + 1.0;
-  return r;
+  const e0_0 = 1.0 + 0.0008138020833333327 * t;
+  const e0_1 = -6.953875223757086e-6 + 2.265894880232325e-7 * t;
+  const e0_2 = -1.6009773971299857e-8 + 1.9637985394880053e-9 * t;
+  const e0_3 = -3.7001832147961916e-10 + 9.827415901935597e-11 * t;
+  const e0_4 = -3.3373417473815167e-11 + 1.2446317120678045e-11 * t;
+  const e0_5 = -4.171339050362376e-12 + 9.989500951728673e-13 * t;
+  const t2 = t * t;
+  const e1_0 = e0_0 + e0_1 * t2;
+  const e1_1 = e0_2 + e0_3 * t2;
+  const e1_2 = e0_4 + e0_5 * t2;
+  const t4 = t2 * t2;
+  const e2_0 = e1_0 + e1_1 * t4;
+  const e2_1 = e1_2 + -1.19635506953054e-13 * t4;
+  const t8 = t4 * t4;
+  const e3_0 = e2_0 + e2_1 * t8;
+  return e3_0;
 }
 
 /** Q1_HANKEL: x Q_1(x) for x >= 12, t = 144 / x^2. */
 export function q1Hankel(t: number): number {
-  let r = -5.54171781264124e-13;
-  r = r * t + 4.7137944306355165e-12;
-  r = r * t + -1.9475634089665438e-11;
-  r = r * t + 5.432172313656621e-11;
-  r = r * t + -1.2378753432897935e-10;
-  r = r * t + 2.737846082233079e-10;
-  r = r * t + -6.886178405840311e-10;
-  r = r * t + 2.210306545820816e-9;
-  r = r * t + -9.752196390728748e-9;
-  r = r * t + 6.337203714203661e-8;
-  r = r * t + -6.676297422009541e-7;
-  r = r * t + 1.3386209805735695e-5;
-  r = r * t + -0.0007120768229166657;
-  r = r * t + 0.375;
-  return r;
+  const e0_0 = 0.375 + -0.0007120768229166657 * t;
+  const e0_1 = 1.3386209805735695e-5 + -6.676297422009541e-7 * t;
+  const e0_2 = 6.337203714203661e-8 + -9.752196390728748e-9 * t;
+  const e0_3 = 2.210306545820816e-9 + -6.886178405840311e-10 * t;
+  const e0_4 = 2.737846082233079e-10 + -1.2378753432897935e-10 * t;
+  const e0_5 = 5.432172313656621e-11 + -1.9475634089665438e-11 * t;
+  const e0_6 = 4.7137944306355165e-12 + -5.54171781264124e-13 * t;
+  const t2 = t * t;
+  const e1_0 = e0_0 + e0_1 * t2;
+  const e1_1 = e0_2 + e0_3 * t2;
+  const e1_2 = e0_4 + e0_5 * t2;
+  const t4 = t2 * t2;
+  const e2_0 = e1_0 + e1_1 * t4;
+  const e2_1 = e1_2 + e0_6 * t4;
+  const t8 = t4 * t4;
+  const e3_0 = e2_0 + e2_1 * t8;
+  return e3_0;
 }
+
+/** SIN_REDUCED: sin r = r + r^3 S(r^2), |r| <= pi/4, u = r^2. */
+export function sinReducedS(u: number): number {
+  const e0_0 = -0.16666666666666666 + 0.008333333333333333 * u;
+  const e0_1 = -0.00019841269841269839 + 2.7557319223981103e-6 * u;
+  const e0_2 = -2.5052108382390393e-8 + 1.605904278117078e-10 * u;
+  const e0_3 = -7.646961362082944e-13 + 2.7912447059925897e-15 * u;
+  const u2 = u * u;
+  const e1_0 = e0_0 + e0_1 * u2;
+  const e1_1 = e0_2 + e0_3 * u2;
+  const u4 = u2 * u2;
+  const e2_0 = e1_0 + e1_1 * u4;
+  return e2_0;
+}
+
+/** COS_REDUCED: cos r = 1 - r^2/2 + r^4 C(r^2), |r| <= pi/4, u = r^2. */
+export function cosReducedC(u: number): number {
+  const e0_0 = 0.041666666666666664 + -0.001388888888888889 * u;
+  const e0_1 = 2.4801587301587298e-5 + -2.7557319223983495e-7 * u;
+  const e0_2 = 2.0876756986341654e-9 + -1.1470745069651523e-11 * u;
+  const e0_3 = 4.7793761044561366e-14 + -1.5518111989666754e-16 * u;
+  const u2 = u * u;
+  const e1_0 = e0_0 + e0_1 * u2;
+  const e1_1 = e0_2 + e0_3 * u2;
+  const u4 = u2 * u2;
+  const e2_0 = e1_0 + e1_1 * u4;
+  return e2_0;
+}
+
+/** pi/2 to 33 significant bits, so that n * PIO2_HI is exact for |n| < 2^20. */
+export const PIO2_HI = 1.5707963267341256;
+/** pi/2 - PIO2_HI, rounded to binary64. */
+export const PIO2_LO = 6.077100506506192e-11;
+/** 2/pi, rounded to binary64. */
+export const TWO_OVER_PI = 0.6366197723675814;

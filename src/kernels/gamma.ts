@@ -71,7 +71,7 @@ function gammaPositive(z: number): number {
  * @returns Gamma(z); +Infinity above 171.62 (overflow) and at the poles z = 0, -1, -2, ... (with the sign of
  *   the zero at z = +-0); NaN only for NaN or -Infinity
  *
- * Notes: relative error below about 3e-15 for 0 < z < 171 (checked against scipy.special.gamma in
+ * Notes: relative error below 16 eps (3.6e-15) for 0 < z < 171 (checked against scipy.special.gamma in
  * tests/kernels/gamma.test.ts). On [1, 2] it is the reciprocal of a polynomial fit to 1 / Gamma (an entire
  * function), made by src/kernels/generate-coefficients.py; below 1 and up to 20 the recurrence
  * Gamma(z + 1) = z Gamma(z) (A&S 6.1.15) is used, from 20 on Stirling's series (A&S 6.1.40) with seven terms,
@@ -80,7 +80,7 @@ function gammaPositive(z: number): number {
  * @example
  * ```ts
  * gamma(5); // 24
- * gamma(0.5); // 1.7724538509055159 (sqrt(pi))
+ * gamma(0.5); // 1.772453850905516 (sqrt(pi) = 1.7724538509055159)
  * ```
  */
 export function gamma(z: number): number {

@@ -26,7 +26,10 @@ Fitted pieces:
       J_n(x) = sqrt(2 / (pi x)) (P_n(x) cos w - Q_n(x) sin w),  w = x - (2 n + 1) pi / 4,
   with P_n and x Q_n as polynomials in t = 144 / x^2 on [0, 1]; P and Q are taken
   from mpmath's besselj and bessely.
+  sin r and cos r on |r| <= pi/4, as polynomials in r^2 (from their Taylor series), and pi/2 split in two
+  parts for the argument reduction of sin and cos in the Hankel form.
   1 / Gamma(z) on 1 <= z <= 2, as a polynomial in w = z - 3/2.
+The polynomials are evaluated by Estrin's scheme (see estrin_lines).
 """
 
 import os
@@ -143,25 +146,46 @@ def fmt(values):
     return ',\n  '.join(repr(v) for v in values)
 
 
-def horner_fn(name, doc, var, coeffs):
-    """TypeScript function evaluating sum coeffs[k] var^k by Horner's rule, literals inline."""
-    lines = [f'/** {doc} */', f'export function {name}({var}: number): number {{']
-    lines.append(f'  let r = {coeffs[-1]!r};')
-    for a in reversed(coeffs[:-1]):
-        lines.append(f'  r = r * {var} + {a!r};')
-    lines.append('  return r;')
+def estrin_lines(coeffs, var):
+    """TypeScript statements evaluating sum coeffs[k] var^k by Estrin's scheme (pairs, then pairs of pairs with
+    var^2, var^4, ...): the same rounding as Horner's rule for decreasing coefficients, a much shorter chain of
+    dependent operations. coeffs are TypeScript expressions. The value ends in the returned expression."""
+    lines = []
+    level = list(coeffs)
+    power = var
+    depth = 0
+    while len(level) > 1:
+        if depth > 0:
+            lines.append(f'  const {var}{2 ** depth} = {power} * {power};')
+            power = f'{var}{2 ** depth}'
+        nxt = []
+        for i in range(0, len(level), 2):
+            if i + 1 < len(level):
+                name = f'e{depth}_{i // 2}'
+                lines.append(f'  const {name} = {level[i]} + {level[i + 1]} * {power};')
+                nxt.append(name)
+            else:
+                nxt.append(level[i])
+        level = nxt
+        depth += 1
+    return lines, level[0]
+
+
+def poly_fn(name, doc, var, coeffs):
+    """TypeScript function evaluating sum coeffs[k] var^k, literals inline."""
+    body, result = estrin_lines([repr(a) for a in coeffs], var)
+    lines = [f'/** {doc} */', f'export function {name}({var}: number): number {{'] + body
+    lines.append(f'  return {result};')
     lines.append('}\n')
     return '\n'.join(lines)
 
 
-def horner_table_fn(name, doc, table, stride):
+def poly_table_fn(name, doc, table, stride):
     """TypeScript function evaluating piece k of a flat coefficient table at t."""
-    deg = stride - 1
+    body, result = estrin_lines([f'{table}[o + {j}]!' if j else f'{table}[o]!' for j in range(stride)], 't')
     lines = [f'/** {doc} */', f'export function {name}(k: number, t: number): number {{',
-             f'  const o = k * {stride};', f'  let r = {table}[o + {deg}]!;']
-    for j in range(deg - 1, 0, -1):
-        lines.append(f'  r = r * t + {table}[o + {j}]!;')
-    lines.append(f'  return r * t + {table}[o]!;')
+             f'  const o = k * {stride};'] + body
+    lines.append(f'  return {result};')
     lines.append('}\n')
     return '\n'.join(lines)
 
@@ -198,7 +222,7 @@ def main():
         lo_err = check(coeffs, h, 0, 4, lambda s: s)
         report.append(f'// {name}: degree {deg} in s, largest error of s * B(s) on 0 <= s <= 4: '
                       f'{mp.nstr(lo_err * 4, 3)}')
-        out.append(horner_fn(fn, f'{name}: B(s), s = x^2 <= 4, with J{order}(x) / x^{order} = {lead} + s B(s).', 's', coeffs))
+        out.append(poly_fn(fn, f'{name}: B(s), s = x^2 <= 4, with J{order}(x) / x^{order} = {lead} + s B(s).', 's', coeffs))
 
     near_zero('J0_NEAR_ZERO', 'j0NearZeroB', 0, 1)
     near_zero('J1_NEAR_ZERO', 'j1NearZeroB', 1, '1/2')
@@ -224,7 +248,7 @@ def main():
                       f'largest error {mp.nstr(max(errs), 3)}')
         out.append(f'/** {name}: {deg + 1} coefficients per piece [k, k + 1], k = 2 .. 11, in t = x - (k + 1/2). */')
         out.append(f'const {name} = new Float64Array([\n  {fmt(table)},\n]);\n')
-        out.append(horner_table_fn(f'j{n}Piece', f'J{n}(x) on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).',
+        out.append(poly_table_fn(f'j{n}Piece', f'J{n}(x) on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).',
                                    name, deg + 1))
 
     # --- Hankel form on x >= 12, polynomials in t = 144 / x^2 --------------------------------
@@ -242,7 +266,36 @@ def main():
             what = f'{label}_{n}(x)' if label == 'P' else f'x Q_{n}(x)'
             report.append(f'// {name}: {what}, degree {deg} in t = 144 / x^2, largest error {mp.nstr(err, 3)}')
             fn = f'{label.lower()}{n}Hankel'
-            out.append(horner_fn(fn, f'{name}: {what} for x >= 12, t = 144 / x^2.', 't', coeffs))
+            out.append(poly_fn(fn, f'{name}: {what} for x >= 12, t = 144 / x^2.', 't', coeffs))
+
+    # --- sin and cos on |r| <= pi/4, and pi/2 in two parts for the argument reduction ------------------
+    # sin r = r + r^3 S(r^2), cos r = 1 - r^2/2 + r^4 C(r^2), S and C from their Taylor series.
+    def sin_s(u):
+        u = mp.mpf(u)
+        return mp.fsum((-1) ** k * u ** (k - 1) / mp.factorial(2 * k + 1) for k in range(1, 40))
+
+    def cos_c(u):
+        u = mp.mpf(u)
+        return mp.fsum((-1) ** k * u ** (k - 2) / mp.factorial(2 * k) for k in range(2, 40))
+
+    umax = (mp.pi / 4) ** 2
+    for label, g, fn, what in (('SIN', sin_s, 'sinReducedS', 'sin r = r + r^3 S(r^2)'),
+                               ('COS', cos_c, 'cosReducedC', 'cos r = 1 - r^2/2 + r^4 C(r^2)')):
+        coeffs, deg = fit(g, 0, umax, 20, (2 / umax, -1))
+        err = check(coeffs, g, 0, umax, lambda u: u, 200)
+        report.append(f'// {label}_REDUCED: {what} on |r| <= pi/4, degree {deg} in r^2, largest error of the '
+                      f'polynomial {mp.nstr(err, 3)}')
+        out.append(poly_fn(fn, f'{label}_REDUCED: {what}, |r| <= pi/4, u = r^2.', 'u', coeffs))
+    half_pi = mp.pi / 2
+    p1 = mp.floor(half_pi * 2**32) / 2**32  # 33 significant bits: n * p1 is exact for |n| < 2^20
+    p2 = float(half_pi - p1)
+    out.append('/** pi/2 to 33 significant bits, so that n * PIO2_HI is exact for |n| < 2^20. */')
+    out.append(f'export const PIO2_HI = {float(p1)!r};')
+    out.append('/** pi/2 - PIO2_HI, rounded to binary64. */')
+    out.append(f'export const PIO2_LO = {p2!r};')
+    out.append('/** 2/pi, rounded to binary64. */')
+    out.append(f'export const TWO_OVER_PI = {float(2 / mp.pi)!r};\n')
+    assert float(p1) == p1
 
     with open(os.path.join(HERE, 'bessel-coefficients.ts'), 'w') as fh:
         fh.write('\n'.join(header + report) + '\n\n' + '\n'.join(out))
@@ -254,7 +307,7 @@ def main():
     gamma_out = header + [
         f'// RECIPROCAL_GAMMA: degree {deg} in w = z - 3/2, largest error {mp.nstr(err, 3)}',
         '',
-        horner_fn('reciprocalGammaOneTwo', 'RECIPROCAL_GAMMA: 1 / Gamma(z) on 1 <= z <= 2, w = z - 3/2.', 'w', coeffs),
+        poly_fn('reciprocalGammaOneTwo', 'RECIPROCAL_GAMMA: 1 / Gamma(z) on 1 <= z <= 2, w = z - 3/2.', 'w', coeffs),
     ]
     with open(os.path.join(HERE, 'gamma-coefficients.ts'), 'w') as fh:
         fh.write('\n'.join(gamma_out))

@@ -8,8 +8,8 @@
  * @module
  */
 import { besselJ0, diskAmplitude } from './bessel.js';
+import { SIN_COS, sinCosTurns } from './sincos.js';
 
-const TWO_PI = 2 * Math.PI;
 /** pi^2 / (4 ln 2): the Gaussian exponent per unit (FWHM q)^2. */
 export const GAUSS_K = (Math.PI * Math.PI) / (4 * Math.LN2);
 
@@ -23,8 +23,8 @@ export const RADIAL_THIN_RING = 2;
 /**
  * Adds the phase ramp of a shifted term without size, `flux * exp(-2 pi i (u e0 + v n0))`.
  *
- * Notes: the phase is reduced in cycles (t - round(t)) before it is turned into radians, so a shift of any size
- * keeps the rounding error of one product u * e0 (about |t| * 1.1e-16 cycles).
+ * Notes: the phase is reduced in turns (exactly) before it is turned into radians, so a shift of any size
+ * keeps only the rounding error of the product u * e0 (about |t| * 1.1e-16 turns).
  */
 export function addPointTerm(
   re: Float64Array,
@@ -41,11 +41,9 @@ export function addPointTerm(
     return;
   }
   for (let i = 0; i < n; i++) {
-    let t = u[i]! * e0 + v[i]! * n0;
-    t -= Math.round(t);
-    const ph = TWO_PI * t;
-    re[i] = re[i]! + flux * Math.cos(ph);
-    im[i] = im[i]! - flux * Math.sin(ph);
+    sinCosTurns(u[i]! * e0 + v[i]! * n0);
+    re[i] = re[i]! + flux * SIN_COS[1]!;
+    im[i] = im[i]! - flux * SIN_COS[0]!;
   }
 }
 
@@ -132,11 +130,9 @@ export function addRadialTerm(
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * diskAmplitude(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          let t = uu * e0 + vv * n0;
-          t -= Math.round(t);
-          const ph = TWO_PI * t;
-          re[i] = re[i]! + a * Math.cos(ph);
-          im[i] = im[i]! - a * Math.sin(ph);
+          sinCosTurns(uu * e0 + vv * n0);
+          re[i] = re[i]! + a * SIN_COS[1]!;
+          im[i] = im[i]! - a * SIN_COS[0]!;
         }
       } else {
         for (let i = 0; i < n; i++) {
@@ -154,11 +150,9 @@ export function addRadialTerm(
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
-          let t = uu * e0 + vv * n0;
-          t -= Math.round(t);
-          const ph = TWO_PI * t;
-          re[i] = re[i]! + a * Math.cos(ph);
-          im[i] = im[i]! - a * Math.sin(ph);
+          sinCosTurns(uu * e0 + vv * n0);
+          re[i] = re[i]! + a * SIN_COS[1]!;
+          im[i] = im[i]! - a * SIN_COS[0]!;
         }
       } else {
         for (let i = 0; i < n; i++) {
@@ -176,11 +170,9 @@ export function addRadialTerm(
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * besselJ0(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          let t = uu * e0 + vv * n0;
-          t -= Math.round(t);
-          const ph = TWO_PI * t;
-          re[i] = re[i]! + a * Math.cos(ph);
-          im[i] = im[i]! - a * Math.sin(ph);
+          sinCosTurns(uu * e0 + vv * n0);
+          re[i] = re[i]! + a * SIN_COS[1]!;
+          im[i] = im[i]! - a * SIN_COS[0]!;
         }
       } else {
         for (let i = 0; i < n; i++) {
@@ -214,11 +206,9 @@ export function addAmplitudeTerm(
     return;
   }
   for (let i = 0; i < n; i++) {
-    let t = u[i]! * e0 + v[i]! * n0;
-    t -= Math.round(t);
-    const ph = TWO_PI * t;
+    sinCosTurns(u[i]! * e0 + v[i]! * n0);
     const a = amp[i]!;
-    re[i] = re[i]! + a * Math.cos(ph);
-    im[i] = im[i]! - a * Math.sin(ph);
+    re[i] = re[i]! + a * SIN_COS[1]!;
+    im[i] = im[i]! - a * SIN_COS[0]!;
   }
 }

@@ -9,12 +9,18 @@
  * @module
  */
 import { ModelError, showValue } from '../errors.js';
+import { isChromatic, readChromatic } from './chromatic-slot.js';
+import {
+  COMPONENT_FACTOR_KINDS,
+  type ComponentFactorKind,
+  canonicaliseComponent,
+} from './component-canonical.js';
 import { add, constant, cosDeg, type Dual, type Mat2, matMul, matVec, mul, sinDeg } from './dual.js';
 import type { ModelNode } from './nodes.js';
 import { isParam, type Param, type Slot } from './param.js';
 
 /** Kernel kinds of a canonical factor. `radial` kinds depend on |A^T q| only. */
-export type FactorKind = 'uniformDisk' | 'gaussian' | 'thinRing';
+export type FactorKind = 'uniformDisk' | 'gaussian' | 'thinRing' | ComponentFactorKind;
 
 /** Facts about each factor kind. */
 export const FACTOR_KINDS: Readonly<
@@ -23,6 +29,7 @@ export const FACTOR_KINDS: Readonly<
   uniformDisk: { radial: true, shapeNames: [] },
   gaussian: { radial: true, shapeNames: [] },
   thinRing: { radial: true, shapeNames: [] },
+  ...COMPONENT_FACTOR_KINDS,
 });
 
 /** One primitive factor of a canonical term, with dual (value + gradient) entries. */
@@ -31,6 +38,8 @@ export interface DualFactor {
   readonly shape: readonly Dual[];
   /** The linear map A (row-major, mas per unit size) through which the unit primitive is seen. */
   readonly a: Mat2;
+  /** Fixed data of tabulated kinds (a radial profile's table, a pixel image); compared by identity. */
+  readonly data?: unknown;
 }
 
 /** One canonical term with dual entries. */
@@ -49,6 +58,10 @@ export interface CanonicalEnv {
   readonly values: Float64Array | null;
   /** When true, duals carry gradients over the free parameters. */
   readonly gradients: boolean;
+  /** Wavelength in metres at which wavelength-dependent slots are read (none: such slots are an error). */
+  readonly wavelength?: number;
+  /** When true and no wavelength is given, wavelength-dependent slots are read at their reference wavelength. */
+  readonly chromaticAtReference?: boolean;
 }
 
 /** An environment that reads every parameter's own value and tracks no gradients. */
@@ -81,6 +94,16 @@ export function readSlot(slot: Slot, env: CanonicalEnv, path: string, domain: Do
   let p: Param | null = null;
   if (typeof slot === 'number') {
     value = slot;
+  } else if (isChromatic(slot)) {
+    const d = readChromatic(
+      slot,
+      env.wavelength,
+      env.chromaticAtReference === true,
+      path,
+      (c, where, dom, u) => readSlot(c, env, where, dom, u),
+    );
+    value = d.v;
+    g = d.g;
   } else if (isParam(slot)) {
     p = slot;
     const i = slot.fixed ? undefined : env.index.get(slot.name);
@@ -90,9 +113,12 @@ export function readSlot(slot: Slot, env: CanonicalEnv, path: string, domain: Do
       g[i] = 1;
     }
   } else {
-    throw new ModelError(`${path}: expected a number or a param(...), got ${showValue(slot)}`, {
-      modelPath: path,
-    });
+    throw new ModelError(
+      `${path}: expected a number or a param(...) (or a wavelength-dependent slot), got ${showValue(slot)}`,
+      {
+        modelPath: path,
+      },
+    );
   }
   const named = p === null ? '' : ` (parameter '${p.name}')`;
   if (!Number.isFinite(value)) {
@@ -136,7 +162,7 @@ function mapTerms(terms: readonly DualTerm[], b: Mat2): DualTerm[] {
       flux: t.flux,
       east,
       north,
-      factors: t.factors.map((f) => ({ kind: f.kind, shape: f.shape, a: matMul(b, f.a) })),
+      factors: t.factors.map((f) => ({ ...f, a: matMul(b, f.a) })),
     };
   });
 }
@@ -230,6 +256,17 @@ export function canonicalise(
       }
       return out;
     }
+    case 'linearLimbDarkenedDisk':
+    case 'quadraticLimbDarkenedDisk':
+    case 'powerLawLimbDarkenedDisk':
+    case 'annulus':
+    case 'modulatedRing':
+    case 'exponential':
+    case 'lorentzian':
+    case 'background':
+    case 'radialProfile':
+    case 'pixelImage':
+      return canonicaliseComponent(node, slot, path);
     default: {
       const never: never = node;
       throw new ModelError(

@@ -7,6 +7,15 @@ import { Complex } from 'complex.js';
 import { InputError, ModelError } from '../errors.js';
 import { DEG_PER_RAD } from '../units/index.js';
 import { canonicalise, type DualTerm, FACTOR_KINDS, type FactorKind } from './canonical.js';
+import {
+  chromaticParams,
+  chromaticToString,
+  hasChromaticSlot,
+  isChromatic,
+  substituteChromatic,
+} from './chromatic-slot.js';
+import { componentToString } from './component-nodes.js';
+import { type ModelJSON, modelToJSON } from './json.js';
 import { childrenOf, type ModelNode, SLOT_NAMES } from './nodes.js';
 import { isParam, type Param, type Slot } from './param.js';
 import { compilePlan, type Plan, runPlan } from './plan.js';
@@ -30,6 +39,8 @@ export interface TermFactor {
    * primitive I(A^-1 x) / |det A| and its Fourier transform is P(A^T q).
    */
   readonly matrix: readonly [number, number, number, number];
+  /** Fixed data of a tabulated kind (a radial profile's table, a pixel image), compared by identity. */
+  readonly data?: unknown;
 }
 
 /** One canonical term: `flux * prod P_f(A_f^T q) * exp(-2 pi i q . (east, north))`. */
@@ -54,6 +65,20 @@ interface Cache {
   terms: DualTerm[];
   params: Map<string, Param>;
   plan?: Plan;
+  /** True when a slot depends on wavelength: `terms` then hold the build-time check values only. */
+  chromatic?: boolean;
+}
+
+/** The terms of a model without wavelength-dependent slots; a clear error for a chromatic one. */
+function achromatic(c: Cache, what: string): DualTerm[] {
+  if (c.chromatic) {
+    throw new ModelError(
+      `${what}: this model has wavelength-dependent slots, so it has no single ${what}; use the wavelength ` +
+        'functions (chromaticVisibilities, chromaticVis2, chromaticBispectrum, chromaticPlan, ...) with a wavelength per point',
+      { argument: what },
+    );
+  }
+  return c.terms;
 }
 const caches = new WeakMap<Model, Cache>();
 
@@ -64,8 +89,8 @@ function collectParams(node: ModelNode, into: Map<string, Param>, path: string):
     for (let i = 0; i < kids.length; i++) collectParams(kids[i]!, into, `${path}.of[${i}]`);
   } else if (kids[0]) collectParams(kids[0], into, `${path}.of`);
   for (const name of SLOT_NAMES[node.kind]) {
-    const s = (node as unknown as Record<string, Slot>)[name];
-    if (isParam(s)) {
+    const held = (node as unknown as Record<string, Slot>)[name];
+    for (const s of slotParams(held)) {
       const prev = into.get(s.name);
       if (prev === undefined) into.set(s.name, s);
       else if (
@@ -83,8 +108,17 @@ function collectParams(node: ModelNode, into: Map<string, Param>, path: string):
   }
 }
 
+/** The params a slot holds (itself, or the coefficients of a wavelength-dependent slot). */
+function slotParams(s: Slot | undefined): Param[] {
+  if (isParam(s)) return [s];
+  if (isChromatic(s)) return chromaticParams(s).map(([, p]) => p);
+  return [];
+}
+
 function freezeDeep<T>(x: T): T {
   if (typeof x === 'object' && x !== null && !Object.isFrozen(x)) {
+    // tabulated factor data (class instances holding typed arrays) are shared, not frozen
+    if (!Array.isArray(x) && Object.getPrototypeOf(x) !== Object.prototype) return x;
     for (const v of Object.values(x)) freezeDeep(v);
     Object.freeze(x);
   }
@@ -143,6 +177,7 @@ function fmtNum(x: number): string {
 
 function fmtSlot(s: Slot): string {
   if (typeof s === 'number') return fmtNum(s);
+  if (isChromatic(s)) return chromaticToString(s, fmtSlot);
   const opts: string[] = [];
   if (s.min !== Number.NEGATIVE_INFINITY) opts.push(`min: ${fmtNum(s.min)}`);
   if (s.max !== Number.POSITIVE_INFINITY) opts.push(`max: ${fmtNum(s.max)}`);
@@ -175,14 +210,20 @@ function nodeToString(node: ModelNode): string {
       return `sum(${node.of.map(nodeToString).join(', ')})`;
     case 'convolve':
       return `convolve(${nodeToString(node.of[0])}, ${nodeToString(node.of[1])})`;
+    default:
+      return componentToString(node, s);
   }
 }
 
 function substitute(node: ModelNode, values: ReadonlyMap<string, number>): ModelNode {
-  const out: Record<string, unknown> = { kind: node.kind };
+  const out: Record<string, unknown> = { ...node };
   for (const name of SLOT_NAMES[node.kind]) {
     const s = (node as unknown as Record<string, Slot>)[name]!;
-    out[name] = isParam(s) ? (values.get(s.name) ?? s.value) : s;
+    out[name] = isParam(s)
+      ? (values.get(s.name) ?? s.value)
+      : isChromatic(s)
+        ? substituteChromatic(s, values)
+        : s;
   }
   if (node.kind === 'sum' || node.kind === 'convolve') out['of'] = node.of.map((c) => substitute(c, values));
   else if ('of' in node) out['of'] = substitute(node.of, values);
@@ -197,6 +238,8 @@ interface NormFactor {
   shape: number[];
   /** A A^T (3 entries) for radial kinds, A (4 entries) otherwise. */
   key: number[];
+  /** Tabulated data, compared by identity. */
+  data?: unknown;
 }
 interface NormTerm {
   flux: number;
@@ -223,7 +266,7 @@ function normFactors(factors: readonly TermFactor[]): NormFactor[] {
       gauss = gauss === null ? key : gauss.map((g, i) => g + key[i]!);
       continue;
     }
-    out.push({ kind: f.kind, radial, shape: [...f.shape], key });
+    out.push({ kind: f.kind, radial, shape: [...f.shape], key, data: f.data });
   }
   if (gauss !== null) out.push({ kind: 'gaussian', radial: true, shape: [], key: gauss });
   return out;
@@ -237,6 +280,7 @@ function factorsEqual(a: NormFactor[], b: NormFactor[]): boolean {
       const fb = b[j]!;
       if (used[j] || fb.kind !== fa.kind || fb.shape.length !== fa.shape.length) continue;
       if (!fa.shape.every((x, i) => closeTo(x, fb.shape[i]!, 0))) continue;
+      if (fa.data !== fb.data) continue;
       const scale = Math.max(...fa.key.map(Math.abs), ...fb.key.map(Math.abs));
       if (!fa.key.every((x, i) => closeTo(x, fb.key[i]!, EQUALS_TOLERANCE * scale + 1e-18))) continue;
       used[j] = true;
@@ -290,9 +334,12 @@ export class Model {
     const frozen = freezeDeep(node);
     const params = new Map<string, Param>();
     collectParams(frozen, params, frozen.kind);
-    const terms = canonicalise(frozen);
+    const chromatic = hasChromaticSlot(frozen);
+    const terms = chromatic
+      ? canonicalise(frozen, { index: new Map(), values: null, gradients: false, chromaticAtReference: true })
+      : canonicalise(frozen);
     this.node = frozen;
-    caches.set(this, { terms, params });
+    caches.set(this, chromatic ? { terms, params, chromatic } : { terms, params });
     Object.freeze(this);
   }
 
@@ -374,7 +421,7 @@ export class Model {
   /** Total (unnormalised) flux F(0, 0) at the parameters' current values. */
   get flux(): number {
     let f = 0;
-    for (const t of this.cache.terms) f += t.flux.v;
+    for (const t of achromatic(this.cache, 'flux')) f += t.flux.v;
     return f;
   }
 
@@ -384,7 +431,7 @@ export class Model {
    */
   terms(): readonly Term[] {
     return freezeDeep(
-      this.cache.terms.map((t) => ({
+      achromatic(this.cache, 'terms').map((t) => ({
         flux: t.flux.v,
         east: t.east.v,
         north: t.north.v,
@@ -392,6 +439,7 @@ export class Model {
           kind: f.kind,
           shape: f.shape.map((s) => s.v),
           matrix: [f.a[0].v, f.a[1].v, f.a[2].v, f.a[3].v] as const,
+          ...(f.data === undefined ? {} : { data: f.data }),
         })),
       })),
     );
@@ -425,6 +473,19 @@ export class Model {
   /** A readable TypeScript expression that rebuilds this model with uvsky's factories. */
   toString(): string {
     return nodeToString(this.node);
+  }
+
+  /**
+   * The JSON document of this model, `{ format: 'uvsky-model', version: 1, model: <node> }`; called by
+   * `JSON.stringify(m)`. Read it back with `modelFromJSON`.
+   * @returns fresh plain data (see `modelToJSON` for the format)
+   * @example
+   * ```ts
+   * JSON.stringify(point().weight(2)); // '{"format":"uvsky-model","version":1,"model":{"kind":"weight","flux":2,"of":{"kind":"point"}}}'
+   * ```
+   */
+  toJSON(): ModelJSON {
+    return modelToJSON(this);
   }
 
   // ---------- parameters ----------
@@ -481,7 +542,7 @@ export class Model {
     // check the slot domains with the parameters still in place, so errors name them
     const index = new Map(free.map((p, i) => [p.name, i] as const));
     const vec = Float64Array.from(free, (p) => map.get(p.name) ?? p.value);
-    canonicalise(this.node, { index, values: vec, gradients: false });
+    canonicalise(this.node, { index, values: vec, gradients: false, chromaticAtReference: true });
     return new Model(substitute(this.node, map));
   }
 
@@ -490,7 +551,7 @@ export class Model {
   /** @internal The compiled plan at the parameters' current values. */
   plan(): Plan {
     const c = this.cache;
-    if (c.plan === undefined) c.plan = compilePlan(c.terms, this.node.kind);
+    if (c.plan === undefined) c.plan = compilePlan(achromatic(c, 'plan'), this.node.kind);
     return c.plan;
   }
 

@@ -4,7 +4,11 @@
  *
  * @module
  */
+import type { ComponentNode } from './component-nodes.js';
+import { COMPONENT_SLOT_NAMES } from './component-nodes.js';
 import type { Slot } from './param.js';
+
+export type * from './component-nodes.js';
 
 /** A point source of flux 1 at the origin. */
 export interface PointNode {
@@ -34,7 +38,7 @@ export interface EllipseNode {
 }
 
 /** Nodes of the primitive components. */
-export type PrimitiveNode = PointNode | DiskNode | GaussianNode | RingNode | EllipseNode;
+export type PrimitiveNode = PointNode | DiskNode | GaussianNode | RingNode | EllipseNode | ComponentNode;
 
 /** Multiplies the flux of `of` by `flux` (may be negative). */
 export interface WeightNode {
@@ -110,6 +114,7 @@ export const SLOT_NAMES: Readonly<Record<NodeKind, readonly string[]>> = Object.
   incline: ['inclination', 'pa'],
   sum: [],
   convolve: [],
+  ...COMPONENT_SLOT_NAMES,
 });
 
 /** The children of a node (empty for primitives). */

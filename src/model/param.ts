@@ -4,6 +4,7 @@
  * @module
  */
 import { ModelError, showValue } from '../errors.js';
+import type { ChromaticSlot } from './chromatic-slot.js';
 
 /** Options of {@link param}. */
 export interface ParamOptions {
@@ -33,8 +34,11 @@ export interface Param {
   readonly fixed: boolean;
 }
 
-/** What a numeric slot of a model may hold: a plain number or a {@link Param}. */
-export type Slot = number | Param;
+/**
+ * What a numeric slot of a model may hold: a plain number, a {@link Param}, or a wavelength-dependent value
+ * ({@link ChromaticSlot}: `powerLawFlux`, `powerLawSize`, `blackbodyRatio`).
+ */
+export type Slot = number | Param | ChromaticSlot;
 
 const NAME_RE = /^[A-Za-z_][A-Za-z0-9_.:-]*$/;
 

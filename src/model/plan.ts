@@ -16,6 +16,12 @@ import {
 } from '../kernels/terms.js';
 import { RAD_PER_MAS } from '../units/index.js';
 import type { DualTerm, FactorKind } from './canonical.js';
+import {
+  addComponentTerm,
+  COMPONENT_CODES,
+  componentCoefficients,
+  isComponentFactor,
+} from './component-plan.js';
 
 /**
  * Below this fraction of the sum of |flux| the total flux counts as zero and the model cannot be normalised.
@@ -27,6 +33,7 @@ const RADIAL_CODES: Readonly<Record<FactorKind, number>> = {
   uniformDisk: RADIAL_UNIFORM_DISK,
   gaussian: RADIAL_GAUSSIAN,
   thinRing: RADIAL_THIN_RING,
+  ...COMPONENT_CODES,
 };
 
 /** A factor ready for a kernel: M = A A^T in rad^2 for radial kinds. */
@@ -35,6 +42,15 @@ interface PlanFactor {
   readonly m11: number;
   readonly m12: number;
   readonly m22: number;
+  /** A (row-major) in radians per unit, used by non-radial kinds. */
+  readonly a11: number;
+  readonly a12: number;
+  readonly a21: number;
+  readonly a22: number;
+  /** Kernel coefficients computed from the shape parameters (empty for the foundation kinds). */
+  readonly p: Float64Array;
+  /** Tabulated data of data-driven kinds (null otherwise). */
+  readonly data: unknown;
 }
 
 interface PlanTerm {
@@ -79,6 +95,15 @@ export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
       // |A^T q|^2 = q^T (A A^T) q
       return {
         code: RADIAL_CODES[f.kind],
+        a11: a11 * RAD_PER_MAS,
+        a12: a12 * RAD_PER_MAS,
+        a21: a21 * RAD_PER_MAS,
+        a22: a22 * RAD_PER_MAS,
+        p: componentCoefficients(
+          RADIAL_CODES[f.kind],
+          f.shape.map((x) => x.v),
+        ),
+        data: f.data ?? null,
         m11: (a11 * a11 + a12 * a12) * s,
         m12: (a11 * a21 + a12 * a22) * s,
         m22: (a21 * a21 + a22 * a22) * s,
@@ -118,7 +143,9 @@ export function runPlan(
   im.fill(0, 0, n);
   for (const t of plan.terms) {
     const nf = t.factors.length;
-    if (nf === 0) {
+    if (t.factors.some(isComponentFactor)) {
+      addComponentTerm(plan, t.flux, t.e0, t.n0, t.factors, u, v, re, im, n);
+    } else if (nf === 0) {
       addPointTerm(re, im, u, v, n, t.flux, t.e0, t.n0);
     } else if (nf === 1) {
       const f = t.factors[0]!;

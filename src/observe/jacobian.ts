@@ -10,12 +10,16 @@
  */
 import { Matrix } from 'ml-matrix';
 import { InputError, ModelError } from '../errors.js';
+import { besselJ0, besselJ1, diskAmplitude } from '../kernels/bessel.js';
 import {
   gaussianDerivatives,
+  j2OverX2,
   type RadialDerivativeKernel,
   thinRingDerivatives,
   uniformDiskDerivatives,
 } from '../kernels/derivatives.js';
+import { SIN_COS, sinCosTurns } from '../kernels/sincos.js';
+import { GAUSS_K } from '../kernels/terms.js';
 import { canonicalise, type DualTerm, FACTOR_KINDS, type FactorKind } from '../model/canonical.js';
 import type { Dual } from '../model/dual.js';
 import type { Model } from '../model/model.js';
@@ -69,6 +73,14 @@ export interface ObservableJacobian {
   readonly jacobian: Float64Array;
 }
 
+/** Buffers that {@link visibilityJacobian} may fill instead of allocating. */
+export interface JacobianBuffers {
+  readonly re?: Float64Array;
+  readonly im?: Float64Array;
+  readonly dre?: Float64Array;
+  readonly dim?: Float64Array;
+}
+
 /** The complex visibility and its Jacobian at a set of points. */
 export interface VisibilityJacobian {
   readonly parameters: readonly string[];
@@ -82,49 +94,30 @@ export interface VisibilityJacobian {
   readonly dim: Float64Array;
 }
 
-interface SparseGrad {
-  readonly idx: Int32Array;
-  readonly val: Float64Array;
-}
-
-function sparse(d: Dual, factor: number): SparseGrad {
-  if (d.g === null) return { idx: new Int32Array(0), val: new Float64Array(0) };
-  const idx: number[] = [];
-  const val: number[] = [];
-  for (let j = 0; j < d.g.length; j++) {
-    if (d.g[j] !== 0) {
-      idx.push(j);
-      val.push(d.g[j]! * factor);
-    }
-  }
-  return { idx: Int32Array.from(idx), val: Float64Array.from(val) };
-}
-
-interface JFactor {
-  readonly kernel: RadialDerivativeKernel;
-  readonly m11: number;
-  readonly m12: number;
-  readonly m22: number;
-  readonly shape: Float64Array;
-  /** Parameters that change M, with dM entries (rad^2). */
-  readonly mIdx: Int32Array;
-  readonly dm11: Float64Array;
-  readonly dm12: Float64Array;
-  readonly dm22: Float64Array;
-  /** Per shape entry k: its sparse gradient. */
-  readonly shapeGrads: readonly SparseGrad[];
-}
-
+/** One canonical term flattened for the per-point loop. */
 interface JTerm {
   readonly flux: number;
   readonly e0: number;
   readonly n0: number;
-  readonly dflux: SparseGrad;
-  /** Shift gradients in radians; union index set. */
-  readonly sIdx: Int32Array;
-  readonly de: Float64Array;
-  readonly dn: Float64Array;
-  readonly factors: readonly JFactor[];
+  /** Number of factors. */
+  readonly nf: number;
+  /** Per factor: kernel code (-1 = use `kernels[f]`), and M = A A^T in rad^2. */
+  readonly codes: Int32Array;
+  readonly kernels: readonly RadialDerivativeKernel[];
+  readonly m: Float64Array; // 3 per factor
+  readonly shapes: readonly Float64Array[];
+  /** Offsets of each factor's shape slopes in the per-point slope buffer. */
+  readonly shapeOffsets: Int32Array;
+  /** Free parameters that move this term (column indices). */
+  readonly idx: Int32Array;
+  /**
+   * Per active parameter, `stride` coefficients: d flux, d east (rad), d north (rad), then per factor dM (3, rad^2),
+   * then d shape for every shape entry of every factor.
+   */
+  readonly coef: Float64Array;
+  readonly stride: number;
+  /** Total number of shape entries over the factors. */
+  readonly nShape: number;
 }
 
 interface JPlan {
@@ -132,8 +125,14 @@ interface JPlan {
   readonly terms: readonly JTerm[];
   readonly total: number;
   readonly dtotal: Float64Array;
-  readonly maxShape: number;
+  readonly maxFactors: number;
+  readonly maxShapes: number;
 }
+
+const CODE_DISK = 0;
+const CODE_GAUSS = 1;
+const CODE_RING = 2;
+const CODE_OTHER = -1;
 
 function gradOf(d: Dual, j: number): number {
   return d.g === null ? 0 : d.g[j]!;
@@ -144,70 +143,86 @@ function compileJacobianPlan(terms: readonly DualTerm[], cols: number, path: str
   let absTotal = 0;
   const dtotal = new Float64Array(cols);
   const out: JTerm[] = [];
-  let maxShape = 0;
+  let maxFactors = 0;
+  let maxShapes = 0;
   for (const t of terms) {
     total += t.flux.v;
     absTotal += Math.abs(t.flux.v);
     if (t.flux.g) for (let j = 0; j < cols; j++) dtotal[j] = dtotal[j]! + t.flux.g[j]!;
-    const sIdx: number[] = [];
-    const de: number[] = [];
-    const dn: number[] = [];
-    for (let j = 0; j < cols; j++) {
-      const a = gradOf(t.east, j);
-      const b = gradOf(t.north, j);
-      if (a !== 0 || b !== 0) {
-        sIdx.push(j);
-        de.push(a * RAD_PER_MAS);
-        dn.push(b * RAD_PER_MAS);
-      }
-    }
-    const factors = t.factors.map((f): JFactor => {
+    const nf = t.factors.length;
+    maxFactors = Math.max(maxFactors, nf);
+    const codes = new Int32Array(nf);
+    const kernels: RadialDerivativeKernel[] = [];
+    const m = new Float64Array(3 * nf);
+    const shapes: Float64Array[] = [];
+    const shapeOffsets = new Int32Array(nf);
+    let nShape = 0;
+    t.factors.forEach((f, k) => {
       const kernel = DERIVATIVE_KERNELS[f.kind];
-      if (kernel === undefined || !FACTOR_KINDS[f.kind].radial) {
+      if (kernel === undefined || FACTOR_KINDS[f.kind]?.radial !== true) {
         throw new ModelError(`${path}: factor kind '${f.kind}' has no analytic Jacobian yet`, {
           modelPath: path,
         });
       }
+      kernels.push(kernel);
+      codes[k] =
+        kernel === uniformDiskDerivatives
+          ? CODE_DISK
+          : kernel === gaussianDerivatives
+            ? CODE_GAUSS
+            : kernel === thinRingDerivatives
+              ? CODE_RING
+              : CODE_OTHER;
       const [a11, a12, a21, a22] = f.a;
-      const mIdx: number[] = [];
-      const dm11: number[] = [];
-      const dm12: number[] = [];
-      const dm22: number[] = [];
-      for (let j = 0; j < cols; j++) {
+      m[3 * k] = (a11.v * a11.v + a12.v * a12.v) * RAD2;
+      m[3 * k + 1] = (a11.v * a21.v + a12.v * a22.v) * RAD2;
+      m[3 * k + 2] = (a21.v * a21.v + a22.v * a22.v) * RAD2;
+      shapes.push(Float64Array.from(f.shape, (x) => x.v));
+      shapeOffsets[k] = nShape;
+      nShape += f.shape.length;
+    });
+    maxShapes = Math.max(maxShapes, nShape);
+    const stride = 3 + 3 * nf + nShape;
+    const idx: number[] = [];
+    const coef: number[] = [];
+    for (let j = 0; j < cols; j++) {
+      const row = new Array<number>(stride).fill(0);
+      row[0] = gradOf(t.flux, j);
+      row[1] = gradOf(t.east, j) * RAD_PER_MAS;
+      row[2] = gradOf(t.north, j) * RAD_PER_MAS;
+      t.factors.forEach((f, k) => {
+        const [a11, a12, a21, a22] = f.a;
         const g11 = gradOf(a11, j);
         const g12 = gradOf(a12, j);
         const g21 = gradOf(a21, j);
         const g22 = gradOf(a22, j);
-        if (g11 === 0 && g12 === 0 && g21 === 0 && g22 === 0) continue;
         // M = A A^T: m11 = a11^2 + a12^2, m12 = a11 a21 + a12 a22, m22 = a21^2 + a22^2
-        mIdx.push(j);
-        dm11.push(2 * (a11.v * g11 + a12.v * g12) * RAD2);
-        dm12.push((g11 * a21.v + a11.v * g21 + g12 * a22.v + a12.v * g22) * RAD2);
-        dm22.push(2 * (a21.v * g21 + a22.v * g22) * RAD2);
+        row[3 + 3 * k] = 2 * (a11.v * g11 + a12.v * g12) * RAD2;
+        row[4 + 3 * k] = (g11 * a21.v + a11.v * g21 + g12 * a22.v + a12.v * g22) * RAD2;
+        row[5 + 3 * k] = 2 * (a21.v * g21 + a22.v * g22) * RAD2;
+        f.shape.forEach((sh, q) => {
+          row[3 + 3 * nf + shapeOffsets[k]! + q] = gradOf(sh, j);
+        });
+      });
+      if (row.some((x) => x !== 0)) {
+        idx.push(j);
+        coef.push(...row);
       }
-      maxShape = Math.max(maxShape, f.shape.length);
-      return {
-        kernel,
-        m11: (a11.v * a11.v + a12.v * a12.v) * RAD2,
-        m12: (a11.v * a21.v + a12.v * a22.v) * RAD2,
-        m22: (a21.v * a21.v + a22.v * a22.v) * RAD2,
-        shape: Float64Array.from(f.shape, (s) => s.v),
-        mIdx: Int32Array.from(mIdx),
-        dm11: Float64Array.from(dm11),
-        dm12: Float64Array.from(dm12),
-        dm22: Float64Array.from(dm22),
-        shapeGrads: f.shape.map((s) => sparse(s, 1)),
-      };
-    });
+    }
     out.push({
       flux: t.flux.v,
       e0: t.east.v * RAD_PER_MAS,
       n0: t.north.v * RAD_PER_MAS,
-      dflux: sparse(t.flux, 1),
-      sIdx: Int32Array.from(sIdx),
-      de: Float64Array.from(de),
-      dn: Float64Array.from(dn),
-      factors,
+      nf,
+      codes,
+      kernels,
+      m,
+      shapes,
+      shapeOffsets,
+      idx: Int32Array.from(idx),
+      coef: Float64Array.from(coef),
+      stride,
+      nShape,
     });
   }
   if (!(Math.abs(total) >= ZERO_FLUX_FRACTION * absTotal) || absTotal === 0) {
@@ -217,7 +232,7 @@ function compileJacobianPlan(terms: readonly DualTerm[], cols: number, path: str
       { modelPath: path },
     );
   }
-  return { cols, terms: out, total, dtotal, maxShape };
+  return { cols, terms: out, total, dtotal, maxFactors, maxShapes };
 }
 
 function toColumn(x: ArrayLike<number>, fn: string, name: string): Float64Array {
@@ -237,6 +252,8 @@ function toColumn(x: ArrayLike<number>, fn: string, name: string): Float64Array 
   return a;
 }
 
+const PI2 = Math.PI * Math.PI;
+
 function runJacobian(
   plan: JPlan,
   u: Float64Array,
@@ -248,86 +265,116 @@ function runJacobian(
 ): void {
   const n = u.length;
   const cols = plan.cols;
-  const kout = new Float64Array(2 + plan.maxShape);
-  let pv = new Float64Array(4);
-  let gv = new Float64Array(4);
-  let sv = new Float64Array(4 * (plan.maxShape || 1));
+  const kout = new Float64Array(2 + plan.maxShapes);
+  const pv = new Float64Array(plan.maxFactors);
+  const gv = new Float64Array(plan.maxFactors);
+  const others = new Float64Array(plan.maxFactors);
+  const sv = new Float64Array(Math.max(1, plan.maxShapes));
+  const dfr = new Float64Array(cols);
+  const dfi = new Float64Array(cols);
   const invTot = 1 / plan.total;
+  const terms = plan.terms;
+  const nt = terms.length;
   for (let i = 0; i < n; i++) {
     const uu = u[i]!;
     const vv = v[i]!;
-    const row = i * cols;
+    const u2 = uu * uu;
+    const uv2 = 2 * uu * vv;
+    const v2 = vv * vv;
     let fre = 0;
     let fim = 0;
-    for (const t of plan.terms) {
-      const nf = t.factors.length;
-      if (pv.length < nf) {
-        pv = new Float64Array(nf);
-        gv = new Float64Array(nf);
-        sv = new Float64Array(nf * (plan.maxShape || 1));
-      }
+    for (let k = 0; k < nt; k++) {
+      const t = terms[k]!;
+      const nf = t.nf;
+      const m = t.m;
       let prod = 1;
       for (let f = 0; f < nf; f++) {
-        const fac = t.factors[f]!;
-        const r2 = fac.m11 * uu * uu + 2 * fac.m12 * uu * vv + fac.m22 * vv * vv;
-        fac.kernel(r2, fac.shape, kout);
-        pv[f] = kout[0]!;
-        gv[f] = kout[1]!;
-        for (let k = 0; k < fac.shape.length; k++) sv[f * plan.maxShape + k] = kout[2 + k]!;
-        prod *= kout[0]!;
+        const r2raw = m[3 * f]! * u2 + m[3 * f + 1]! * uv2 + m[3 * f + 2]! * v2;
+        const r2 = r2raw > 0 ? r2raw : 0;
+        let p: number;
+        let g: number;
+        switch (t.codes[f]) {
+          case CODE_DISK: {
+            const x = Math.PI * Math.sqrt(r2);
+            if (x < 2) {
+              p = diskAmplitude(x);
+              g = -PI2 * j2OverX2(x);
+            } else {
+              // one J0 and one J1: P = 2 J1/x and J2/x^2 = (P - J0)/x^2 (A&S 9.1.27), little cancellation for x >= 2
+              p = (2 * besselJ1(x)) / x;
+              g = (-PI2 * (p - besselJ0(x))) / (x * x);
+            }
+            break;
+          }
+          case CODE_GAUSS:
+            p = Math.exp(-GAUSS_K * r2);
+            g = -GAUSS_K * p;
+            break;
+          case CODE_RING: {
+            const x = Math.PI * Math.sqrt(r2);
+            p = besselJ0(x);
+            g = -(PI2 / 4) * diskAmplitude(x);
+            break;
+          }
+          default: {
+            const sh = t.shapes[f]!;
+            t.kernels[f]!(r2, sh, kout);
+            p = kout[0]!;
+            g = kout[1]!;
+            const off = t.shapeOffsets[f]!;
+            for (let q = 0; q < sh.length; q++) sv[off + q] = kout[2 + q]!;
+          }
+        }
+        pv[f] = p;
+        gv[f] = g;
+        prod *= p;
       }
       let c = 1;
       let s = 0;
       if (t.e0 !== 0 || t.n0 !== 0) {
-        let ph = uu * t.e0 + vv * t.n0;
-        ph -= Math.round(ph);
-        c = Math.cos(TWO_PI * ph);
-        s = -Math.sin(TWO_PI * ph);
+        sinCosTurns(uu * t.e0 + vv * t.n0);
+        c = SIN_COS[1]!;
+        s = -SIN_COS[0]!;
       }
-      // term = flux * prod * (c + i s)
-      const tre = t.flux * prod * c;
-      const tim = t.flux * prod * s;
+      const flux = t.flux;
+      const tre = flux * prod * c;
+      const tim = flux * prod * s;
       fre += tre;
       fim += tim;
-      // flux gradients
-      const df = t.dflux;
-      for (let k = 0; k < df.idx.length; k++) {
-        const j = row + df.idx[k]!;
-        const w = df.val[k]! * prod;
-        dre[j] = dre[j]! + w * c;
-        dim[j] = dim[j]! + w * s;
-      }
-      // shift gradients: d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
-      for (let k = 0; k < t.sIdx.length; k++) {
-        const j = row + t.sIdx[k]!;
-        const w = TWO_PI * (uu * t.de[k]! + vv * t.dn[k]!);
-        dre[j] = dre[j]! + w * tim;
-        dim[j] = dim[j]! - w * tre;
-      }
-      // factor gradients through M and shape
-      for (let f = 0; f < nf; f++) {
-        const fac = t.factors[f]!;
-        let others = 1;
-        for (let g = 0; g < nf; g++) if (g !== f) others *= pv[g]!;
-        const base = t.flux * others;
-        const gr = base * gv[f]!;
-        for (let k = 0; k < fac.mIdx.length; k++) {
-          const j = row + fac.mIdx[k]!;
-          const dr2 = fac.dm11[k]! * uu * uu + 2 * fac.dm12[k]! * uu * vv + fac.dm22[k]! * vv * vv;
-          const w = gr * dr2;
-          dre[j] = dre[j]! + w * c;
-          dim[j] = dim[j]! + w * s;
+      if (t.idx.length === 0) continue;
+      // flux * (product of the other factors), per factor
+      if (nf === 1) others[0] = flux;
+      else {
+        for (let f = 0; f < nf; f++) {
+          let o = flux;
+          for (let h = 0; h < nf; h++) if (h !== f) o *= pv[h]!;
+          others[f] = o;
         }
-        for (let sIx = 0; sIx < fac.shapeGrads.length; sIx++) {
-          const sg = fac.shapeGrads[sIx]!;
-          const dp = base * sv[f * plan.maxShape + sIx]!;
-          for (let k = 0; k < sg.idx.length; k++) {
-            const j = row + sg.idx[k]!;
-            const w = dp * sg.val[k]!;
-            dre[j] = dre[j]! + w * c;
-            dim[j] = dim[j]! + w * s;
+      }
+      const idx = t.idx;
+      const coef = t.coef;
+      const stride = t.stride;
+      const shapeBase = 3 + 3 * nf;
+      for (let a = 0; a < idx.length; a++) {
+        const j = idx[a]!;
+        const o = a * stride;
+        // real-amplitude part: d flux * prod + sum over factors of flux * others * (G dr2 + dP/dshape dshape)
+        let w = coef[o]! * prod;
+        for (let f = 0; f < nf; f++) {
+          const dr2 = coef[o + 3 + 3 * f]! * u2 + coef[o + 4 + 3 * f]! * uv2 + coef[o + 5 + 3 * f]! * v2;
+          w += others[f]! * gv[f]! * dr2;
+        }
+        if (t.nShape > 0) {
+          for (let f = 0; f < nf; f++) {
+            const ns = t.shapes[f]!.length;
+            const off = t.shapeOffsets[f]!;
+            for (let q = 0; q < ns; q++) w += others[f]! * sv[off + q]! * coef[o + shapeBase + off + q]!;
           }
         }
+        // phase part: d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
+        const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
+        dfr[j] = dfr[j]! + w * c + ws * tim;
+        dfi[j] = dfi[j]! + w * s - ws * tre;
       }
     }
     // normalise: V = F / T, dV = (dF - V dT) / T
@@ -335,10 +382,13 @@ function runJacobian(
     const vim = fim * invTot;
     re[i] = vre;
     im[i] = vim;
+    const row = i * cols;
     for (let j = 0; j < cols; j++) {
       const dt = plan.dtotal[j]!;
-      dre[row + j] = (dre[row + j]! - vre * dt) * invTot;
-      dim[row + j] = (dim[row + j]! - vim * dt) * invTot;
+      dre[row + j] = (dfr[j]! - vre * dt) * invTot;
+      dim[row + j] = (dfi[j]! - vim * dt) * invTot;
+      dfr[j] = 0;
+      dfi[j] = 0;
     }
   }
 }
@@ -362,6 +412,8 @@ function prepare(
  * @param v - spatial frequencies north, cycles per radian
  * @param values - optional parameter values (array in the order of `model.parameters()` or a record); default:
  *   the parameters' current values
+ * @param out - optional buffers to fill instead of allocating (`re`, `im` of length n; `dre`, `dim` of n x cols);
+ *   they must not alias `u` or `v`
  * @returns values and row-major Jacobians of the real and imaginary parts
  *
  * Notes: exact derivatives (no finite differences): every factor's kernel supplies P and dP/d|A^T q|^2, shifts
@@ -377,6 +429,7 @@ export function visibilityJacobian(
   u: ArrayLike<number>,
   v: ArrayLike<number>,
   values?: ArrayLike<number> | Readonly<Record<string, number>>,
+  out?: JacobianBuffers,
 ): VisibilityJacobian {
   const fn = 'visibilityJacobian';
   const uu = toColumn(u, fn, 'u');
@@ -392,10 +445,19 @@ export function visibilityJacobian(
   const plan = prepare(model, values);
   const n = uu.length;
   const cols = plan.cols;
-  const re = new Float64Array(n);
-  const im = new Float64Array(n);
-  const dre = new Float64Array(n * cols);
-  const dim = new Float64Array(n * cols);
+  const buf = (b: Float64Array | undefined, len: number, name: string): Float64Array => {
+    if (b === undefined) return new Float64Array(len);
+    if (!(b instanceof Float64Array) || b.length !== len) {
+      throw new InputError(`${fn}: out.${name} must be a Float64Array of length ${len}`, {
+        argument: `out.${name}`,
+      });
+    }
+    return b;
+  };
+  const re = buf(out?.re, n, 're');
+  const im = buf(out?.im, n, 'im');
+  const dre = buf(out?.dre, n * cols, 'dre');
+  const dim = buf(out?.dim, n * cols, 'dim');
   runJacobian(plan, uu, vv, re, im, dre, dim);
   return { parameters: model.parameters(), rows: n, cols, re, im, dre, dim };
 }

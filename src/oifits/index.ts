@@ -24,6 +24,17 @@ export type { BinaryTable, ColumnData, TableColumn, Tform, TformCode } from './f
 export { parseTform } from './fits/bintable.js';
 export type { CardKind, CardValue, HeaderCard } from './fits/header.js';
 export { FitsHeader, formatFloat } from './fits/header.js';
+export {
+  type PlanArray,
+  type PlanErrors,
+  type PlanInstrument,
+  type PlanObservationOptions,
+  type PlanStation,
+  type PlanTarget,
+  type ProjectedBaseline,
+  planObservation,
+  projectBaseline,
+} from './observe-plan.js';
 export { type Random, seededRandom } from './random.js';
 export { type ReadOifitsOptions, readOifits } from './read.js';
 export type { OiTableName } from './schema.js';

@@ -1,0 +1,65 @@
+/**
+ * Issue 4 benchmark: the cost of values plus the analytic Jacobian against values alone, for a 3-component model
+ * with 8 free parameters, measured side by side in one run. Aim: ratio <= 3.
+ *
+ * Run: node --import tsx benchmarks/jacobian.bench.ts [points]
+ */
+import { disk, gaussian, param, point, sum, visibilityJacobian } from '../src/index.js';
+
+const N = Number(process.argv[2] ?? 200_000);
+const REPEATS = 7;
+
+const model = sum(
+  disk({ diameter: param('diameter', 1.8, { min: 0 }) }),
+  gaussian({ fwhm: param('fwhm', 6, { min: 0 }) })
+    .incline(param('inclination', 50, { min: 0, max: 90 }), param('pa', 30))
+    .weight(param('envelope', 0.3)),
+  point().weight(param('companion', 0.05)).shift(param('east', 4.5), param('north', -2)),
+);
+
+const u = new Float64Array(N);
+const v = new Float64Array(N);
+for (let i = 0; i < N; i++) {
+  u[i] = Math.sin(i * 0.37) * 3e8;
+  v[i] = Math.cos(i * 0.11) * 3e8;
+}
+const out = { re: new Float64Array(N), im: new Float64Array(N) };
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)]!;
+}
+function time(f: () => number): { ns: number; check: number } {
+  let check = f();
+  const ts: number[] = [];
+  for (let r = 0; r < REPEATS; r++) {
+    const t0 = process.hrtime.bigint();
+    check += f();
+    ts.push(Number(process.hrtime.bigint() - t0));
+  }
+  return { ns: median(ts), check };
+}
+
+const values = time(() => {
+  model.visibilities(u, v, out);
+  return out.re[N >> 1]!;
+});
+const cols = model.parameters().length;
+const jout = {
+  re: new Float64Array(N),
+  im: new Float64Array(N),
+  dre: new Float64Array(N * cols),
+  dim: new Float64Array(N * cols),
+};
+const withJac = time(() => {
+  const j = visibilityJacobian(model, u, v, undefined, jout);
+  return j.dre[(N >> 1) * j.cols]! + j.re[0]!;
+});
+
+console.log(
+  `uvsky Jacobian benchmark: ${N} points, ${model.parameters().length} free parameters, median of ${REPEATS}`,
+);
+console.log(`values alone        ${(values.ns / N).toFixed(1).padStart(8)} ns/point`);
+console.log(`values + Jacobian   ${(withJac.ns / N).toFixed(1).padStart(8)} ns/point`);
+console.log(`ratio               ${(withJac.ns / values.ns).toFixed(2).padStart(8)}x   (aim: <= 3x)`);
+if (!Number.isFinite(values.check + withJac.check)) throw new Error('non-finite result');
