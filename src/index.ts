@@ -5,6 +5,7 @@
  */
 export * from './errors.js';
 export { FACTOR_KINDS, type FactorKind } from './model/canonical.js';
+export type { ComponentFactorKind } from './model/component-canonical.js';
 export {
   type BlackbodyRatio,
   blackbodyRatio,
@@ -65,7 +66,7 @@ export {
 } from './model/model.js';
 export type * from './model/nodes.js';
 export { fixed, isParam, type Param, type ParamOptions, param, type Slot } from './model/param.js';
-export { ZERO_FLUX_FRACTION } from './model/plan.js';
+export { type Plan, type PlanFactor, type PlanTerm, ZERO_FLUX_FRACTION } from './model/plan.js';
 export * from './observe/chromatic.js';
 export {
   type JacobianBuffers,

@@ -37,7 +37,7 @@ const RADIAL_CODES: Readonly<Record<FactorKind, number>> = {
 };
 
 /** A factor ready for a kernel: M = A A^T in rad^2 for radial kinds. */
-interface PlanFactor {
+export interface PlanFactor {
   readonly code: number;
   readonly m11: number;
   readonly m12: number;
@@ -53,7 +53,7 @@ interface PlanFactor {
   readonly data: unknown;
 }
 
-interface PlanTerm {
+export interface PlanTerm {
   readonly flux: number;
   /** Shift in radians. */
   readonly e0: number;

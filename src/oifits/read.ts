@@ -85,7 +85,7 @@ export function asOiTable(
  * @param options - `name` for messages; `dropFlagged` to leave flagged entries out of the flat views
  * @returns the dataset: raw tables and headers, flat views per observable (u, v in cycles per radian,
  *   UCOORD / VCOORD in metres, wavelengths in metres, phases in degrees as stored), and warnings
- * @throws OifitsError (a {@link UvskyError}) naming file, HDU, table, column, row and keyword for a
+ * @throws OifitsError (a UvskyError) naming file, HDU, table, column, row and keyword for a
  *   truncated or malformed file, a missing mandatory table / keyword / column, a wrong column shape, a
  *   dangling INSNAME / ARRNAME / CORRNAME / TARGET_ID / STA_INDEX, a non-positive error of an unflagged value,
  *   or a wavelength that is not positive
