@@ -221,6 +221,13 @@ export function levenbergMarquardt(
         else continue;
         iter = -iter; // signal convergence to the outer loop
       } else {
+        if (Number.isFinite(trialChi2) && predicted >= 0 && predicted <= ftol * chi2) {
+          // the best possible decrease is below the tolerance: we are at the minimum to rounding
+          reason = 'chi2 change below tolerance';
+          accepted = true;
+          iter = -iter;
+          break;
+        }
         lambda *= nu;
         nu *= 2;
         if (lambda > 1e16) break;
