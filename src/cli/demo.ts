@@ -1,63 +1,173 @@
 /**
- * `npm run demo`: the invented star "Kestrel Minor" (a 1.8 mas uniform disk with a faint companion) observed by
- * the invented four-station array TALLGRASS at 1.65 micron, printed as tables of V^2 and closure phases.
- * Every name and number here is invented for the demonstration.
+ * `npm run demo`: fits the bundled invented observation docs/demo/kestrel-minor.fits (the invented star
+ * "Kestrel Minor" seen by the invented array TALLGRASS; made by docs/demo/make-demo-data.ts), prints the fit
+ * report and writes SVG plots beside the file: V^2 against spatial frequency, closure phase against the longest
+ * baseline of each triangle, normalised residuals, and the fitted model's image.
  */
-import { disk, point, spatialFrequency, sum } from '../index.js';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { companionSearch, type FitResult, fit } from '../fit/index.js';
+import { disk, param, point, sum } from '../index.js';
+import { readOifits } from '../oifits/index.js';
+import { beamImage } from './beam-image.js';
+import { imageSvg, scatterSvg } from './svg.js';
 
-/** Station positions (east, north) in metres on the invented TALLGRASS site. */
-const STATIONS: Record<string, readonly [number, number]> = {
-  TG1: [0, 0],
-  TG2: [46.2, 12.5],
-  TG3: [-18.4, 71.9],
-  TG4: [88.1, -35.3],
-};
-const WAVELENGTH = 1.65e-6; // m
+const here = dirname(fileURLToPath(import.meta.url));
+const file = resolve(here, '../../docs/demo/kestrel-minor.fits');
+const outDir = dirname(file);
+const data = readOifits(readFileSync(file), { name: 'kestrel-minor.fits' });
 
-const star = disk({ diameter: 1.8 });
-const companion = point().weight(0.03).shift(4.5, -2.0);
-const model = sum(star, companion);
-
-function baseline(a: string, b: string): [number, number] {
-  const [ea, na] = STATIONS[a]!;
-  const [eb, nb] = STATIONS[b]!;
-  // baseline from the first to the second station (second minus first)
-  return [spatialFrequency(eb - ea, WAVELENGTH), spatialFrequency(nb - na, WAVELENGTH)];
-}
-
-const names = Object.keys(STATIONS);
+console.log(`uvsky demo: ${data.name}`);
 console.log(
-  'Kestrel Minor (invented): a 1.8 mas uniform disk and a 3 % companion 4.5 mas east, 2.0 mas south',
+  `  target ${data.targets.map((t) => t.name).join(', ')}; ${data.vis2.length} V^2, ${data.t3.length} closure phases, ` +
+    `${new Set(Array.from(data.vis2.wavelength)).size} channels`,
 );
-console.log(`model: ${model.toString()}`);
-console.log(`\nV^2 on the TALLGRASS baselines at ${WAVELENGTH * 1e6} micron`);
-console.log('baseline   u (Mcyc/rad)   v (Mcyc/rad)     V^2');
-const pairs: [string, string][] = [];
-for (let i = 0; i < names.length; i++)
-  for (let j = i + 1; j < names.length; j++) pairs.push([names[i]!, names[j]!]);
-const uv = pairs.map(([a, b]) => baseline(a, b));
-const v2 = model.vis2(
-  uv.map((x) => x[0]),
-  uv.map((x) => x[1]),
-);
-pairs.forEach(([a, b], k) => {
-  const [u, v] = uv[k]!;
-  console.log(
-    `${`${a}-${b}`.padEnd(9)} ${(u / 1e6).toFixed(3).padStart(13)} ${(v / 1e6).toFixed(3).padStart(14)} ${v2[k]!.toFixed(5).padStart(9)}`,
-  );
-});
 
-console.log('\nclosure phases (T3PHI, degrees) of the triangles');
-console.log('triangle        T3PHI      T3AMP');
-const triangles: [string, string, string][] = [];
-for (let i = 0; i < names.length; i++)
-  for (let j = i + 1; j < names.length; j++)
-    for (let k = j + 1; k < names.length; k++) triangles.push([names[i]!, names[j]!, names[k]!]);
-const ab = triangles.map(([a, b]) => baseline(a, b));
-const bc = triangles.map(([, b, c]) => baseline(b, c));
-const args = [ab.map((x) => x[0]), ab.map((x) => x[1]), bc.map((x) => x[0]), bc.map((x) => x[1])] as const;
-const cp = model.closurePhase(...args);
-const t3 = model.t3amp(...args);
-triangles.forEach((t, k) => {
-  console.log(`${t.join('-').padEnd(13)} ${cp[k]!.toFixed(3).padStart(8)} ${t3[k]!.toFixed(5).padStart(10)}`);
+// 1. is there a companion? search a grid around a single star
+const star = disk({ diameter: param('diameter', 1.5, { min: 0, max: 10 }) });
+const axis = [-9, -6, -3, 0, 3, 6, 9];
+const search = companionSearch(star, data, { east: axis, north: axis, observables: ['vis2', 't3phi'] });
+console.log(
+  `\ncompanion search (${axis.length}x${axis.length} starts, V^2 + T3PHI): chi2 single ${search.single.chi2.toFixed(1)}, ` +
+    `binary ${search.grid.best.chi2.toFixed(1)}, delta chi2 ${search.deltaChi2.toFixed(1)} -> ` +
+    `${Number.isFinite(search.significance) ? search.significance.toFixed(1) : '> 37'} sigma (chi2 with 3 dof)`,
+);
+
+// 2. refine the binary from the best grid node with every observable
+const b = search.grid.best.values;
+const binary = sum(
+  disk({ diameter: param('diameter', b.diameter!, { min: 0, max: 10 }) }),
+  point()
+    .weight(param('flux', b.companionFlux!, { min: 0, max: 1 }))
+    .shift(param('east', b.companionEast!), param('north', b.companionNorth!)),
+);
+const result = fit(binary, data);
+printReport(result);
+
+// 3. plots
+const best = result.model;
+const res = result.residuals;
+const colours = ['#3b6fb6', '#2f9e8f', '#7fb13b', '#d9a21b', '#d9651b', '#b6303b'];
+const waves = [...new Set(Array.from(data.vis2.wavelength))].sort();
+const colourOf = (w: number) => colours[Math.max(0, waves.indexOf(w)) % colours.length]!;
+
+const vis2 = res.observables.find((o) => o.observable === 'vis2')!;
+const q = (i: number) => Math.hypot(data.vis2.u[i]!, data.vis2.v[i]!) / 1e6;
+const series = waves.map((w) => {
+  const idx = Array.from(vis2.index).filter((i) => data.vis2.wavelength[i] === w);
+  return {
+    x: idx.map(q),
+    y: idx.map((i) => data.vis2.value[i]!),
+    err: idx.map((i) => data.vis2.error[i]!),
+    color: colourOf(w),
+    label: `${(w * 1e6).toFixed(2)} micron`,
+  };
 });
+const order = Array.from(vis2.index).sort((a, c) => q(a) - q(c));
+writeFileSync(
+  join(outDir, 'vis2.svg'),
+  scatterSvg(
+    [
+      ...series,
+      {
+        x: order.map(q),
+        y: order.map((i) => vis2.model[Array.from(vis2.index).indexOf(i)]!),
+        color: '#222',
+        kind: 'line',
+      },
+    ],
+    {
+      title: 'Kestrel Minor: V^2 and the fitted model (line)',
+      xLabel: 'spatial frequency (Mcycles/rad)',
+      yLabel: 'V^2',
+    },
+  ),
+);
+
+const t3 = res.observables.find((o) => o.observable === 't3phi')!;
+const qmax = (i: number) => {
+  const { u1, v1, u2, v2 } = data.t3;
+  return (
+    Math.max(
+      Math.hypot(u1[i]!, v1[i]!),
+      Math.hypot(u2[i]!, v2[i]!),
+      Math.hypot(u1[i]! + u2[i]!, v1[i]! + v2[i]!),
+    ) / 1e6
+  );
+};
+const tIdx = Array.from(t3.index);
+writeFileSync(
+  join(outDir, 'closure-phase.svg'),
+  scatterSvg(
+    [
+      {
+        x: tIdx.map(qmax),
+        y: tIdx.map((i) => data.t3.t3phi[i]!),
+        err: tIdx.map((i) => data.t3.t3phiError[i]!),
+        color: '#3b6fb6',
+        label: 'data',
+      },
+      { x: tIdx.map(qmax), y: Array.from(t3.model), color: '#d9651b', label: 'model' },
+    ],
+    {
+      title: 'Kestrel Minor: closure phases',
+      xLabel: 'longest baseline of the triangle (Mcycles/rad)',
+      yLabel: 'T3PHI (degrees)',
+      hline: 0,
+    },
+  ),
+);
+
+writeFileSync(
+  join(outDir, 'residuals.svg'),
+  scatterSvg(
+    res.observables.map((o, k) => ({
+      x: Array.from(o.normalised, (_, i) => i + res.observables.slice(0, k).reduce((a, p) => a + p.count, 0)),
+      y: o.normalised,
+      color: colours[k % colours.length]!,
+      label: o.observable.toUpperCase(),
+    })),
+    {
+      title: 'Normalised residuals (model - data) / error',
+      xLabel: 'data point',
+      yLabel: 'residual (sigma)',
+      hline: 0,
+    },
+  ),
+);
+
+const fov = 24;
+const n = 128;
+writeFileSync(
+  join(outDir, 'model-image.svg'),
+  imageSvg(
+    beamImage(best, n, fov, 0.6),
+    n,
+    fov,
+    'Fitted model seen with a 0.6 mas beam (north up, east left)',
+  ),
+);
+console.log(`\nwrote vis2.svg, closure-phase.svg, residuals.svg, model-image.svg in ${outDir}`);
+
+function printReport(r: FitResult): void {
+  console.log(`\nfit: ${r.model.toString()}`);
+  console.log(`  stopped: ${r.reason} after ${r.iterations} iterations`);
+  console.log(`  chi2 ${r.chi2.toFixed(2)}, dof ${r.dof}, reduced chi2 ${r.reducedChi2.toFixed(3)}`);
+  for (const [o, s] of Object.entries(r.perObservable)) {
+    console.log(
+      `    ${o.padEnd(7)} chi2 ${s!.chi2.toFixed(1).padStart(8)} over ${String(s!.count).padStart(4)} points`,
+    );
+  }
+  console.log('\n  parameter        value     +- (errors as given)   +- (scaled by reduced chi2)');
+  for (const p of r.parameters) {
+    console.log(
+      `  ${p.padEnd(10)} ${r.values[p]!.toFixed(5).padStart(11)} ${r.uncertainties[p]!.toExponential(2).padStart(20)} ${r.scaledUncertainties[p]!.toExponential(2).padStart(28)}`,
+    );
+  }
+  console.log('\n  correlation');
+  console.log(`  ${''.padEnd(10)}${r.parameters.map((p) => p.padStart(10)).join('')}`);
+  r.parameters.forEach((p, i) => {
+    console.log(`  ${p.padEnd(10)}${r.correlation[i]!.map((c) => c.toFixed(3).padStart(10)).join('')}`);
+  });
+}
