@@ -81,7 +81,8 @@ export function scatterSvg(series: readonly Series[], o: PlotOptions): string {
   const sx = (x: number) => L + ((x - x0) / (x1 - x0)) * (W - L - R);
   const sy = (y: number) => H - B - ((y - y0) / (y1 - y0)) * (H - T - B);
   const parts: string[] = [
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="sans-serif" font-size="12">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="sans-serif" font-size="12" role="img">`,
+    `<title>${esc(o.title)}</title>`,
     `<rect width="${W}" height="${H}" fill="white"/>`,
     `<text x="${W / 2}" y="22" text-anchor="middle" font-size="15">${esc(o.title)}</text>`,
     `<rect x="${L}" y="${T}" width="${W - L - R}" height="${H - T - B}" fill="none" stroke="#444"/>`,
@@ -156,7 +157,8 @@ export function imageSvg(pixels: Float64Array, n: number, fov: number, title: st
   for (const p of pixels) max = Math.max(max, p);
   const px = size / n;
   const parts: string[] = [
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="sans-serif" font-size="12">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="sans-serif" font-size="12" role="img">`,
+    `<title>${esc(title)}</title>`,
     `<rect width="${W}" height="${H}" fill="white"/>`,
     `<text x="${W / 2}" y="22" text-anchor="middle" font-size="15">${esc(title)}</text>`,
   ];
