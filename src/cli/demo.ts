@@ -78,7 +78,7 @@ writeFileSync(
       },
     ],
     {
-      title: 'Kestrel Minor: V^2 and the fitted model (line)',
+      title: 'Kestrel Minor: V^2 by channel and the fitted model (black)',
       xLabel: 'spatial frequency (Mcycles/rad)',
       yLabel: 'V^2',
     },
@@ -108,7 +108,7 @@ writeFileSync(
         color: '#3b6fb6',
         label: 'data',
       },
-      { x: tIdx.map(qmax), y: Array.from(t3.model), color: '#d9651b', label: 'model' },
+      { x: tIdx.map(qmax), y: Array.from(t3.model), color: '#222', label: 'model', radius: 1.2 },
     ],
     {
       title: 'Kestrel Minor: closure phases',

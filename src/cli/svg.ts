@@ -14,6 +14,8 @@ export interface Series {
   /** 'points' (default) or 'line' (drawn in the order given). */
   readonly kind?: 'points' | 'line';
   readonly label?: string;
+  /** Marker radius in pixels (default 2.2). */
+  readonly radius?: number;
 }
 
 /** Axis and frame options. */
@@ -124,7 +126,9 @@ export function scatterSvg(series: readonly Series[], o: PlotOptions): string {
             `<line x1="${x.toFixed(1)}" y1="${sy(s.y[i]! - e).toFixed(1)}" x2="${x.toFixed(1)}" y2="${sy(s.y[i]! + e).toFixed(1)}" stroke="${s.color}" stroke-opacity="0.5"/>`,
           );
         }
-        parts.push(`<circle cx="${x.toFixed(1)}" cy="${y.toFixed(1)}" r="2.2" fill="${s.color}"/>`);
+        parts.push(
+          `<circle cx="${x.toFixed(1)}" cy="${y.toFixed(1)}" r="${s.radius ?? 2.2}" fill="${s.color}"/>`,
+        );
       }
     }
   }
@@ -133,7 +137,9 @@ export function scatterSvg(series: readonly Series[], o: PlotOptions): string {
   labelled.forEach((s, k) => {
     const y = T + 16 + 16 * k;
     parts.push(`<rect x="${W - R - 150}" y="${y - 9}" width="10" height="10" fill="${s.color}"/>`);
-    parts.push(`<text x="${W - R - 135}" y="${y}">${esc(s.label!)}</text>`);
+    parts.push(
+      `<text x="${W - R - 135}" y="${y}" paint-order="stroke" stroke="white" stroke-width="3">${esc(s.label!)}</text>`,
+    );
   });
   parts.push('</svg>');
   return parts.join('\n');
@@ -166,12 +172,14 @@ export function imageSvg(pixels: Float64Array, n: number, fov: number, title: st
   for (let j = 0; j < n; j++) {
     for (let i = 0; i < n; i++) {
       const v = Math.max(0, pixels[j * n + i]! / (max || 1));
-      if (v < 0.004) continue;
-      const g = Math.round(255 * Math.sqrt(v));
+      if (v < 0.002) continue;
+      // white sky, the brightest pixels deep orange-brown
+      const a = Math.sqrt(v);
+      const rgb = [255 - a * (255 - 120), 255 - a * (255 - 50), 255 - a * (255 - 10)].map(Math.round);
       const x = L + (n - 1 - i) * px;
       const y = T + (n - 1 - j) * px;
       parts.push(
-        `<rect x="${x.toFixed(2)}" y="${y.toFixed(2)}" width="${(px + 0.3).toFixed(2)}" height="${(px + 0.3).toFixed(2)}" fill="rgb(${g},${Math.round(g * 0.85)},${Math.round(g * 0.5)})"/>`,
+        `<rect x="${x.toFixed(2)}" y="${y.toFixed(2)}" width="${(px + 0.3).toFixed(2)}" height="${(px + 0.3).toFixed(2)}" fill="rgb(${rgb.join(',')})"/>`,
       );
     }
   }
