@@ -101,6 +101,8 @@ function quantile(sorted: readonly number[], q: number): number {
  *
  * Notes: each resample draws as many groups as there are, with replacement (Efron & Tibshirani 1993, "An
  * Introduction to the Bootstrap", the nonparametric bootstrap), and refits from the full-data best fit.
+ * Resampled fits treat errors as independent (OI_CORR correlations are not carried into the resamples; resampling
+ * by record keeps a row's correlated channels together, which is the usual remedy).
  * Progress reports the fraction of samples done.
  */
 export function bootstrap(

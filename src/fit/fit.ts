@@ -8,6 +8,7 @@ import { FitError, ModelError } from '../errors.js';
 import type { Model } from '../model/model.js';
 import { parameterVector } from '../observe/parameters.js';
 import type { OifitsDataset } from '../oifits/dataset.js';
+import { correlationWhitening, type Whitening, whiten } from './correlations.js';
 import { countData, type DataBlock, type DataOptions, type FitObservable, gatherData } from './data.js';
 import { levenbergMarquardt, type StopReason, type Tolerances } from './lm.js';
 import {
@@ -63,7 +64,9 @@ export interface FitResult {
   readonly reducedChi2: number;
   /** Degrees of freedom: data entries minus free parameters. */
   readonly dof: number;
-  /** Unweighted chi2 and entry count per observable. */
+  /** Number of data values whose errors are correlated through OI_CORR (0 when none: chi2 is then a plain sum). */
+  readonly correlatedValues: number;
+  /** Unweighted chi2 and entry count per observable (each ignoring correlations between values). */
   readonly perObservable: Readonly<
     Partial<Record<FitObservable, { readonly chi2: number; readonly count: number }>>
   >;
@@ -85,17 +88,24 @@ export interface FitResult {
 export interface PreparedFit {
   readonly model: Model;
   readonly blocks: readonly DataBlock[];
+  /** Whitening of correlated errors (OI_CORR), or null. */
+  readonly whitening: Whitening | null;
   readonly names: readonly string[];
   readonly lower: Float64Array;
   readonly upper: Float64Array;
 }
 
 /** @internal */
-export function prepareFit(model: Model, blocks: readonly DataBlock[]): PreparedFit {
+export function prepareFit(
+  model: Model,
+  blocks: readonly DataBlock[],
+  whitening: Whitening | null = null,
+): PreparedFit {
   const info = model.parameterInfo().filter((p) => !p.fixed);
   return {
     model,
     blocks,
+    whitening,
     names: info.map((p) => p.name),
     lower: Float64Array.from(info, (p) => p.min),
     upper: Float64Array.from(info, (p) => p.max),
@@ -115,8 +125,14 @@ export function solvePrepared(
     {
       rows,
       cols,
-      residuals: (p, r) => residualsAt(prep.model.at(p), prep.blocks, r),
-      residualsAndJacobian: (p, r, j) => residualsAndJacobian(prep.model, prep.blocks, p, r, j),
+      residuals: (p, r) => {
+        residualsAt(prep.model.at(p), prep.blocks, r);
+        if (prep.whitening) whiten(prep.whitening, r);
+      },
+      residualsAndJacobian: (p, r, j) => {
+        residualsAndJacobian(prep.model, prep.blocks, p, r, j);
+        if (prep.whitening) whiten(prep.whitening, r, j, cols);
+      },
     },
     start,
     {
@@ -192,6 +208,7 @@ export function finishFit(
     covariance: Object.freeze(covariance),
     correlation: Object.freeze(correlation),
     chi2: sol.chi2,
+    correlatedValues: prep.whitening?.correlated ?? 0,
     reducedChi2,
     dof,
     perObservable: Object.freeze(perObservable),
@@ -227,7 +244,7 @@ export function finishFit(
  */
 export function fit(model: Model, dataset: OifitsDataset, options: FitOptions = {}): FitResult {
   const blocks = gatherData(dataset, options);
-  const prep = prepareFit(model, blocks);
+  const prep = prepareFit(model, blocks, correlationWhitening(dataset, blocks));
   if (prep.names.length === 0) {
     throw new FitError('fit: the model has no free parameters; put param(...) in the slots to fit', {
       argument: 'model',

@@ -9,6 +9,7 @@ import { type Model, point, sum } from '../model/model.js';
 import { param } from '../model/param.js';
 import { parameterVector } from '../observe/parameters.js';
 import type { OifitsDataset } from '../oifits/dataset.js';
+import { correlationWhitening, whiten } from './correlations.js';
 import { countData, gatherData } from './data.js';
 import { type FitOptions, type FitResult, finishFit, prepareFit, solvePrepared } from './fit.js';
 import { checkAborted } from './lm.js';
@@ -92,7 +93,7 @@ export function gridSearch(model: Model, dataset: OifitsDataset, options: GridOp
   if (axes.length === 0)
     throw new FitError('gridSearch: give at least one gridded parameter', { argument: 'grid' });
   const blocks = gatherData(dataset, options);
-  const prep = prepareFit(model, blocks);
+  const prep = prepareFit(model, blocks, correlationWhitening(dataset, blocks));
   const base = parameterVector(model, options.start);
   const combos = product(axes);
   const chi2Map = new Float64Array(combos.length);
@@ -219,27 +220,26 @@ export function companionSearch(
   const sigma = options.sigma ?? 3;
   const maxFlux = options.maxFlux ?? 1;
   const f0 = primary.flux;
-  const single =
-    names.length > 0
-      ? finishFit(
-          prepareFit(primary, gatherData(dataset, options)),
-          dataset,
-          options,
-          solvePrepared(
-            prepareFit(primary, gatherData(dataset, options)),
-            parameterVector(primary, options.start),
-            {
-              ...options,
-              onProgress: undefined,
-            },
-          ),
-        )
-      : null;
+  let single: FitResult | null = null;
+  if (names.length > 0) {
+    const bl = gatherData(dataset, options);
+    const prep = prepareFit(primary, bl, correlationWhitening(dataset, bl));
+    const sol = solvePrepared(prep, parameterVector(primary, options.start), {
+      ...options,
+      onProgress: undefined,
+    });
+    single = finishFit(prep, dataset, options, sol);
+  }
   const singleModel = single?.model ?? primary;
   const blocks = gatherData(dataset, options);
+  const white = correlationWhitening(dataset, blocks);
   const r = new Float64Array(countData(blocks));
-  residualsAt(singleModel, blocks, r);
-  const chi2Single = sumOfSquares(r);
+  const chi2Of = (m: Model) => {
+    residualsAt(m, blocks, r);
+    if (white) whiten(white, r);
+    return sumOfSquares(r);
+  };
+  const chi2Single = chi2Of(singleModel);
   const ratio = param('companionFlux', options.flux ?? 0.01, { min: 0, max: maxFlux });
   const binary = sum(
     primary,
@@ -302,6 +302,7 @@ export function companionSearch(
       covariance: [],
       correlation: [],
       chi2: chi2Single,
+      correlatedValues: white?.correlated ?? 0,
       reducedChi2: chi2Single / countData(blocks),
       dof: countData(blocks),
       perObservable: {},
@@ -310,7 +311,12 @@ export function companionSearch(
       converged: true,
       atBound: [],
       model: primary,
-      residuals: { observables: [], chi2: chi2Single, count: countData(blocks) },
+      residuals: {
+        observables: [],
+        chi2: chi2Single,
+        count: countData(blocks),
+        correlatedValues: white?.correlated ?? 0,
+      },
     } satisfies FitResult);
   return {
     single: singleResult,

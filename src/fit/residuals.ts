@@ -9,6 +9,7 @@ import type { ObservableName } from '../observe/jacobian.js';
 import { observableJacobian } from '../observe/jacobian.js';
 import type { OifitsDataset } from '../oifits/dataset.js';
 import { wrapDegrees } from '../units/index.js';
+import { correlationWhitening, whiten } from './correlations.js';
 import {
   countData,
   type DataBlock,
@@ -110,8 +111,13 @@ export interface ObservableResiduals {
 /** Residuals of a model against a dataset, per observable, with the total chi2. */
 export interface ResidualReport {
   readonly observables: readonly ObservableResiduals[];
-  /** Weighted total chi2 (sum over observables of weight * chi2). */
+  /**
+   * Weighted total chi2: the sum over observables of weight * chi2 when errors are independent, and
+   * r^T R^-1 r with the OI_CORR correlations R when the dataset has them.
+   */
   readonly chi2: number;
+  /** Number of values whose errors are correlated through OI_CORR. */
+  readonly correlatedValues: number;
   /** Number of data entries used. */
   readonly count: number;
 }
@@ -124,7 +130,8 @@ export interface ResidualReport {
  * @param options - observables (default: all the dataset has) and per-observable weights
  * @returns per-observable predictions, normalised residuals and chi2, and the weighted total
  *
- * Notes: flagged entries, NaN values and non-positive errors are left out. Phase residuals are wrapped into
+ * Notes: flagged entries, NaN values and non-positive errors are left out. Correlated errors (OI_CORR with
+ * CORRINDX_* columns) enter the total chi2 as r^T R^-1 r; the per-observable chi2 ignore them. Phase residuals are wrapped into
  * (-180, 180] before they are divided by the error (a model at 179 degrees and data at -179 differ by 2).
  * chi2 uses compensated (Neumaier) summation.
  * @example
@@ -154,5 +161,12 @@ export function residuals(model: Model, dataset: OifitsDataset, options: DataOpt
       count: b.data.length,
     });
   }
-  return { observables: out, chi2, count: countData(blocks) };
+  const white = correlationWhitening(dataset, blocks);
+  if (white) {
+    const r = new Float64Array(countData(blocks));
+    residualsAt(model, blocks, r);
+    whiten(white, r);
+    chi2 = sumOfSquares(r);
+  }
+  return { observables: out, chi2, count: countData(blocks), correlatedValues: white?.correlated ?? 0 };
 }
