@@ -208,8 +208,8 @@ export function archetypeGuesses(
  * @throws FitError for an unknown archetype name or no usable data
  *
  * Notes: sizes start at 0.6, 1 and 1.5 times the guess of {@link archetypeGuesses} (bounded below by 0). The
- * binary starts from every east / north node with the disk at 0.3 and 0.7 times the disk guess and the
- * companion at flux 0.1 and 0.4; the `keep` starts of lowest chi2 are refined. Companion offsets are
+ * binary starts from every east / north node except the origin (where a companion on the disk is a
+ * degenerate start), with the disk at half the disk guess and the companion at flux 0.1 and 0.4; the `keep` starts of lowest chi2 are refined. Companion offsets are
  * bounded to twice the grid's extent.
  * @example
  * ```ts
@@ -267,15 +267,20 @@ export function archetypes(dataset: OifitsDataset, options: ArchetypeOptions = {
             param('companionNorth', 0, { min: -reach, max: reach }),
           ),
       );
+      // every east / north node but the origin, where the companion sits on the disk (a degenerate start)
+      const starts: Record<string, number>[] = [];
+      for (const companionFlux of [0.1, 0.4]) {
+        for (const companionEast of seps) {
+          for (const companionNorth of seps) {
+            if (companionEast === 0 && companionNorth === 0) continue;
+            starts.push({ diameter: 0.5 * g.diameter, companionFlux, companionEast, companionNorth });
+          }
+        }
+      }
       out.push({
         name,
         model,
-        grid: {
-          diameter: [0.3 * g.diameter, 0.7 * g.diameter],
-          companionFlux: [0.1, 0.4],
-          companionEast: seps,
-          companionNorth: seps,
-        },
+        starts,
         keep: options.keep ?? DEFAULT_KEEP,
       });
     }

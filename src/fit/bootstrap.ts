@@ -73,6 +73,7 @@ function resample(
         error: take(b.error)!,
         weight: b.weight,
         wavelength: take(b.wavelength)!,
+        ...(b.band ? { band: take(b.band)! } : {}),
         record: Int32Array.from(idx, (k) => b.record[k]!),
         baseline: idx.map((k) => b.baseline[k]!),
         ...(b.u ? { u: take(b.u)!, v: take(b.v)! } : {}),

@@ -171,7 +171,8 @@ function normaliseCandidates(
  * the start), keeping the lowest chi2; `fit`'s uncertainties are attached when the best fit has them (a
  * nested model whose extra parameters end unconstrained, such as a companion of zero flux, still gets its
  * chi2 and criteria, with `uncertainties` null and a `note`). Rows that failed entirely (no start inside the
- * bounds) get chi2 NaN and rank last.
+ * bounds) get chi2 NaN and rank last. The journal references are from memory. The weights exp(-delta / 2) are
+ * the usual Akaike weights (Burnham & Anderson 2002, "Model Selection and Multimodel Inference", from memory).
  * @example
  * ```ts
  * const table = compare(

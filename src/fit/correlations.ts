@@ -118,7 +118,7 @@ export function correlationWhitening(dataset: OifitsDataset, blocks: readonly Da
     const positions = Int32Array.from(list.sort((x, y) => x - y));
     const m = positions.length;
     const local = new Map<number, number>();
-    positions.forEach((p, k) => local.set(p, k));
+    for (let k = 0; k < m; k++) local.set(positions[k]!, k);
     const a = new Float64Array(m * m);
     for (let k = 0; k < m; k++) a[k * m + k] = 1;
     let name = '';

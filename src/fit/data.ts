@@ -43,8 +43,10 @@ export interface DataBlock {
   readonly v1?: Float64Array;
   readonly u2?: Float64Array;
   readonly v2?: Float64Array;
-  /** Wavelength of each entry, metres. */
+  /** Wavelength of each entry (EFF_WAVE), metres. */
   readonly wavelength: Float64Array;
+  /** Channel width of each entry (EFF_BAND), metres, when bandwidth smearing is asked for; otherwise absent. */
+  readonly band?: Float64Array;
   /** Record (row) of each entry in its table, and table number, for resampling by record. */
   readonly record: Int32Array;
   /** Baseline or triangle label of each entry (station names), for resampling by baseline. */
@@ -57,6 +59,12 @@ export interface DataOptions {
   readonly observables?: readonly FitObservable[];
   /** Relative weights per observable (multiply its chi2); default 1 each. */
   readonly weights?: Partial<Record<FitObservable, number>>;
+  /**
+   * Average the model over each channel's width (EFF_BAND) as the instrument does (bandwidth smearing; VIS2 as
+   * the mean of |V|^2). Default false: the model is evaluated at EFF_WAVE only. Wavelength-dependent models are
+   * always evaluated at each entry's own wavelength.
+   */
+  readonly bandwidthSmearing?: boolean;
 }
 
 function pick(src: Float64Array, idx: Int32Array): Float64Array {
@@ -99,6 +107,7 @@ export function gatherData(dataset: OifitsDataset, options: DataOptions = {}): D
     let view: {
       flag: Uint8Array;
       wavelength: Float64Array;
+      band: Float64Array;
       row: Int32Array;
       table: Int32Array;
       stations: readonly string[];
@@ -142,6 +151,7 @@ export function gatherData(dataset: OifitsDataset, options: DataOptions = {}): D
       error: pick(error, index),
       weight,
       wavelength: pick(view.wavelength, index),
+      ...(options.bandwidthSmearing ? { band: pick(view.band, index) } : {}),
       record,
       baseline: keep.map((i) => view.stations[i] ?? ''),
     };

@@ -5,8 +5,8 @@
  * @module
  */
 import type { Model } from '../model/model.js';
-import type { ObservableName } from '../observe/jacobian.js';
-import { observableJacobian } from '../observe/jacobian.js';
+import type { JacobianPoints, ObservableName } from '../observe/jacobian.js';
+import { observableJacobian, observableValues } from '../observe/jacobian.js';
 import type { OifitsDataset } from '../oifits/dataset.js';
 import { wrapDegrees } from '../units/index.js';
 import { correlationWhitening, whiten } from './correlations.js';
@@ -28,20 +28,15 @@ const JACOBIAN_NAME: Record<FitObservable, ObservableName> = {
   visphi: 'visphi',
 };
 
+/** The points of a block as the observe layer takes them (with wavelengths, and bands when smearing). */
+export function blockPoints(b: DataBlock): JacobianPoints {
+  const w = b.band ? { wavelength: b.wavelength, band: b.band } : { wavelength: b.wavelength };
+  return b.u ? { u: b.u, v: b.v!, ...w } : { u1: b.u1!, v1: b.v1!, u2: b.u2!, v2: b.v2!, ...w };
+}
+
 /** A model's predictions of one block. */
 export function predict(model: Model, b: DataBlock): Float64Array {
-  switch (b.observable) {
-    case 'vis2':
-      return model.vis2(b.u!, b.v!);
-    case 'visamp':
-      return model.visamp(b.u!, b.v!);
-    case 'visphi':
-      return model.visphi(b.u!, b.v!);
-    case 't3amp':
-      return model.t3amp(b.u1!, b.v1!, b.u2!, b.v2!);
-    case 't3phi':
-      return model.closurePhase(b.u1!, b.v1!, b.u2!, b.v2!);
-  }
+  return observableValues(model, JACOBIAN_NAME[b.observable], blockPoints(b));
 }
 
 /** Writes normalised residuals of `model` (predictions) for block `b` into `out` from offset `at`. */
@@ -65,8 +60,7 @@ export function residualsAndJacobian(
   const cols = values.length;
   let at = 0;
   for (const b of blocks) {
-    const pts = b.u ? { u: b.u, v: b.v! } : { u1: b.u1!, v1: b.v1!, u2: b.u2!, v2: b.v2! };
-    const j = observableJacobian(model, JACOBIAN_NAME[b.observable], pts, values);
+    const j = observableJacobian(model, JACOBIAN_NAME[b.observable], blockPoints(b), values);
     writeResiduals(b, j.values, r, at);
     const w = Math.sqrt(b.weight);
     for (let k = 0; k < b.data.length; k++) {
