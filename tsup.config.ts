@@ -1,4 +1,7 @@
+import { readFileSync } from 'node:fs';
 import { defineConfig } from 'tsup';
+
+const { version } = JSON.parse(readFileSync('package.json', 'utf8')) as { version: string };
 
 export default defineConfig({
   entry: {
@@ -6,6 +9,9 @@ export default defineConfig({
     'oifits/index': 'src/oifits/index.ts',
     'oifits/node': 'src/oifits/node.ts',
     'fit/index': 'src/fit/index.ts',
+    'plots/index': 'src/plots/index.ts',
+    // the `uvsky` bin (package.json "bin"); its shebang line is kept by the bundler
+    'cli/uvsky': 'src/cli/uvsky.ts',
   },
   format: ['esm', 'cjs'],
   dts: true,
@@ -14,4 +20,7 @@ export default defineConfig({
   target: 'node20',
   treeshake: true,
   splitting: true,
+  // optional dependencies, imported only when toSvg is called
+  external: ['vega', 'vega-lite'],
+  define: { __UVSKY_VERSION__: JSON.stringify(version) },
 });

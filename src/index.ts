@@ -5,7 +5,6 @@
  */
 export * from './errors.js';
 export { FACTOR_KINDS, type FactorKind } from './model/canonical.js';
-export type { ComponentFactorKind } from './model/component-canonical.js';
 export {
   type BlackbodyRatio,
   blackbodyRatio,
@@ -19,6 +18,7 @@ export {
   powerLawSize,
   SECOND_RADIATION_CONSTANT,
 } from './model/chromatic-slot.js';
+export type { ComponentFactorKind } from './model/component-canonical.js';
 export {
   annulus,
   background,
@@ -75,8 +75,10 @@ export {
   type ObservableJacobian,
   type ObservableName,
   observableJacobian,
+  observableValues,
   type VisibilityJacobian,
   visibilityJacobian,
+  type WavelengthColumns,
 } from './observe/jacobian.js';
 export { parameterVector } from './observe/parameters.js';
 export * from './units/index.js';

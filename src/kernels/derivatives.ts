@@ -2,8 +2,9 @@
  * Values and derivatives of the unit-size radial kernels, for the analytic Jacobians.
  *
  * Each function takes r2 = |A^T q|^2 (squared spatial frequency seen through the factor's map, in units where the
- * primitive has size 1) and the factor's shape parameters, and writes into `out`:
- * `out[0]` = P, `out[1]` = dP/d(r2), `out[2 + k]` = dP/d(shape_k). Using r2 rather than r keeps the slope
+ * primitive has size 1) and the factor's kernel coefficients, and writes into `out`:
+ * `out[0]` = P, `out[1]` = dP/d(r2), `out[2 + k]` = dP/d(p_k) for the kernel coefficients p_k (the numbers the
+ * value path computes from the shape parameters once per plan). Using r2 rather than r keeps the slope
  * finite at q = 0.
  *
  * @module
@@ -11,8 +12,11 @@
 import { besselJ0, besselJ1, diskAmplitude } from './bessel.js';
 import { GAUSS_K } from './terms.js';
 
-/** Signature of a radial kernel with derivatives. */
-export type RadialDerivativeKernel = (r2: number, shape: Float64Array, out: Float64Array) => void;
+/**
+ * Signature of a radial kernel with derivatives: `p` holds the kernel coefficients (empty for the foundation
+ * kinds), `data` the fixed data of tabulated kinds; `out[2 + k]` receives dP/dp_k.
+ */
+export type RadialDerivativeKernel = (r2: number, p: Float64Array, out: Float64Array, data?: unknown) => void;
 
 const PI2 = Math.PI * Math.PI;
 

@@ -117,6 +117,46 @@ export class RadialTable implements RadialEvaluator {
     out[1] = (TWO_PI * dv) / this.flux;
   }
 
+  /**
+   * V and dV / d(rho^2) at rho, the derivative being that of the same interpolant {@link RadialTable.at} reads
+   * (so a Jacobian agrees with finite differences of the values), written into out[0], out[1].
+   *
+   * @param rho - frequency, cycles per unit (>= 0)
+   * @param out - output pair: out[0] = V(rho), out[1] = dV/d(rho^2) in units^2
+   *
+   * Notes: dV/d(rho^2) = (dV/drho) / (2 rho). In the first cell the Hermite cubic's slope at 0 is exactly 0
+   * (V is even in rho, so the tabulated dV/drho at 0 is 0), which lets p'(s) / s be written without the
+   * division, so the value at rho = 0 is the interpolant's p''(0) / (2 h^2), finite. Above `maxRho` the direct
+   * quadrature's own dV/drho is used.
+   */
+  derivatives(rho: number, out: Float64Array): void {
+    if (rho > this.maxRho) {
+      this.integrate(rho, rho, this.pair);
+      out[0] = this.pair[0]!;
+      out[1] = this.pair[1]! / (2 * rho);
+      return;
+    }
+    const h = this.step;
+    const t = rho / h;
+    const k = Math.floor(t);
+    const s = t - k;
+    const s1 = 1 - s;
+    const v0 = this.values[k]!;
+    const v1 = this.values[k + 1]!;
+    const m0 = this.slopes[k]!;
+    const m1 = this.slopes[k + 1]!;
+    out[0] =
+      (1 + 2 * s) * s1 * s1 * v0 + s * s1 * s1 * h * m0 + s * s * (3 - 2 * s) * v1 - s * s * s1 * h * m1;
+    if (k === 0) {
+      // p'(s) / s with m0 = 0: 6 (s - 1) v0 + 6 (1 - s) v1 + h m1 (3 s - 2); dV/d(rho^2) = p'(s) / (2 s h^2)
+      out[1] = (6 * s1 * (v1 - v0) + h * m1 * (3 * s - 2)) / (2 * h * h);
+      return;
+    }
+    // p'(s) = 6 s (s - 1) v0 + h m0 (1 - 4 s + 3 s^2) + 6 s (1 - s) v1 + h m1 (3 s^2 - 2 s)
+    const dp = 6 * s * s1 * (v1 - v0) + h * m0 * (1 - 4 * s + 3 * s * s) + h * m1 * s * (3 * s - 2);
+    out[1] = dp / (2 * h * rho);
+  }
+
   /** V at rho (cycles per unit). */
   at(rho: number): number {
     if (rho > this.maxRho) {

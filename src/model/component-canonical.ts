@@ -5,10 +5,10 @@
  * @internal
  * @module
  */
-import { ModelError } from '../errors.js';
+import { ModelError, showValue } from '../errors.js';
 import { PixelGrid, RadialTable } from '../kernels/tabulated.js';
 import type { DualTerm } from './canonical.js';
-import type { ComponentNode } from './component-nodes.js';
+import type { ComponentNode, PixelImageNode, RadialProfileNode } from './component-nodes.js';
 import { apply, constant, type Dual, type Mat2, mul } from './dual.js';
 import type { Slot } from './param.js';
 
@@ -82,6 +82,94 @@ export function profileTable(
     tables.set(intensity, t);
   }
   return t;
+}
+
+/** Nodes whose data fields have passed {@link checkProfileData} or {@link checkPixelData}. */
+const checkedData = new WeakSet<object>();
+
+function dataError(path: string, problem: string, index?: number): never {
+  throw new ModelError(
+    `${path}: ${problem}`,
+    index === undefined ? { modelPath: path } : { modelPath: path, index },
+  );
+}
+
+function finiteArray(x: unknown, path: string): readonly number[] {
+  if (!Array.isArray(x)) dataError(path, `expected an array of finite numbers, got ${showValue(x)}`);
+  for (let i = 0; i < x.length; i++) {
+    const t: unknown = x[i];
+    if (typeof t !== 'number' || !Number.isFinite(t))
+      dataError(`${path}[${i}]`, `expected a finite number, got ${showValue(t)}`, i);
+  }
+  return x as readonly number[];
+}
+
+/**
+ * Checks the data of a radial-profile node as `radialProfile` does, whatever built the node (a node read from
+ * JSON holds whatever the document held).
+ */
+function checkProfileData(node: RadialProfileNode, path: string): void {
+  if (checkedData.has(node)) return;
+  const radii = finiteArray(node.radii, `${path}.radii`);
+  const intensity = finiteArray(node.intensity, `${path}.intensity`);
+  const f = node.maxFrequency;
+  if (typeof f !== 'number' || !(f > 0) || !Number.isFinite(f)) {
+    dataError(`${path}.maxFrequency`, `expected a number of cycles per mas > 0, got ${showValue(f)}`);
+  }
+  if (radii.length < 2 || radii.length !== intensity.length) {
+    dataError(
+      `${path}.intensity`,
+      `expected at least two samples and as many intensities as radii, got ${radii.length} radii and ${intensity.length} intensities`,
+    );
+  }
+  if (radii[0]! < 0) dataError(`${path}.radii[0]`, `expected a radius >= 0 mas, got ${radii[0]}`, 0);
+  for (let k = 1; k < radii.length; k++) {
+    if (radii[k]! < radii[k - 1]! || (k >= 2 && radii[k] === radii[k - 2])) {
+      dataError(
+        `${path}.radii[${k}]`,
+        `expected radii non-decreasing with no radius given more than twice, got ${radii[k]} after ${radii[k - 1]}`,
+        k,
+      );
+    }
+  }
+  let flux = 0;
+  for (let k = 0; k < intensity.length; k++) {
+    if (intensity[k]! < 0) dataError(`${path}.intensity[${k}]`, `expected >= 0, got ${intensity[k]}`, k);
+    if (k + 1 < radii.length) {
+      const [r0, r1, i0, i1] = [radii[k]!, radii[k + 1]!, intensity[k]!, intensity[k + 1]!];
+      flux += (r1 - r0) * (i0 * (2 * r0 + r1) + i1 * (r0 + 2 * r1));
+    }
+  }
+  if (!(flux > 0) || !Number.isFinite(flux)) {
+    dataError(
+      `${path}.intensity`,
+      `the profile has a flux of ${flux}; expected some intensity > 0 inside a radius > 0`,
+    );
+  }
+  checkedData.add(node);
+}
+
+/** Checks the data of a pixel-image node as `pixelImage` does, whatever built the node. */
+function checkPixelData(node: PixelImageNode, path: string): void {
+  if (checkedData.has(node)) return;
+  const pixels = finiteArray(node.pixels, `${path}.pixels`);
+  for (const key of ['nx', 'ny'] as const) {
+    const n = node[key];
+    if (!Number.isSafeInteger(n) || n < 1)
+      dataError(`${path}.${key}`, `expected a positive integer, got ${showValue(n)}`);
+  }
+  if (node.nx * node.ny !== pixels.length) {
+    dataError(`${path}.pixels`, `${pixels.length} pixels do not fill an ${node.nx} x ${node.ny} grid`);
+  }
+  let total = 0;
+  for (const p of pixels) total += p;
+  if (!(Math.abs(total) > 0) || !Number.isFinite(total)) {
+    dataError(
+      `${path}.pixels`,
+      `the pixels sum to ${total}; expected an image of non-zero finite total flux`,
+    );
+  }
+  checkedData.add(node);
 }
 
 /** The evaluator of a pixel-image node (built once per pixel array and kept). */
@@ -162,8 +250,10 @@ export function canonicaliseComponent(node: ComponentNode, slot: SlotReader, pat
     case 'background':
       return unit('background', ONE, []);
     case 'radialProfile':
+      checkProfileData(node, path);
       return unit('radialTable', ONE, [], profileTable(node.radii, node.intensity, node.maxFrequency));
     case 'pixelImage': {
+      checkPixelData(node, path);
       const s = slot(node.scale, 'scale', POSITIVE, ' mas per pixel');
       return unit('pixelImage', s, [], pixelGrid(node.nx, node.ny, node.pixels));
     }

@@ -18,7 +18,7 @@
  */
 import { ModelError, showValue } from '../errors.js';
 import { Model } from './model.js';
-import { type ModelNode, type NodeKind, SLOT_NAMES } from './nodes.js';
+import { MAX_MODEL_DEPTH, type ModelNode, type NodeKind, SLOT_NAMES } from './nodes.js';
 import { isParam, type Param, param } from './param.js';
 
 /** The `format` tag of a model JSON document. */
@@ -255,15 +255,22 @@ function readParam(o: Readonly<Record<string, unknown>>, path: string): Param {
   }
 }
 
-function readField(x: unknown, path: string): unknown {
+function tooDeep(path: string, depth: number): void {
+  if (depth > MAX_MODEL_DEPTH)
+    fail(path, `nested more than ${MAX_MODEL_DEPTH} levels deep; a model is never that deep`);
+}
+
+function readField(x: unknown, path: string, depth = 0): unknown {
+  tooDeep(path, depth);
   if (typeof x === 'number') return readNumber(x, path, 'a finite number');
   if (typeof x === 'string' || typeof x === 'boolean') return x;
-  if (Array.isArray(x)) return x.map((y, i) => readField(y, `${path}[${i}]`));
-  if (isRecord(x)) return readSlot(x, path);
+  if (Array.isArray(x)) return x.map((y, i) => readField(y, `${path}[${i}]`, depth + 1));
+  if (isRecord(x)) return readSlot(x, path, '', depth + 1);
   fail(path, `expected a number, string, boolean, slot or array of these, got ${showValue(x)}`);
 }
 
-function readSlot(x: unknown, path: string, where = ''): unknown {
+function readSlot(x: unknown, path: string, where = '', depth = 0): unknown {
+  tooDeep(path, depth);
   if (typeof x === 'number') return readNumber(x, path, `${SLOT_HINT}${where}`);
   if (!isRecord(x)) {
     const hint = typeof x === 'string' ? ' (numbers are written as JSON numbers, not strings)' : '';
@@ -275,7 +282,8 @@ function readSlot(x: unknown, path: string, where = ''): unknown {
   if (kind === 'param') return readParam(x, path);
   // a slot expression: copied field by field; new Model(...) checks that its kind and fields make sense
   const entries: [string, unknown][] = [['kind', kind]];
-  for (const [k, v] of Object.entries(x)) if (k !== 'kind') entries.push([k, readField(v, `${path}.${k}`)]);
+  for (const [k, v] of Object.entries(x))
+    if (k !== 'kind') entries.push([k, readField(v, `${path}.${k}`, depth + 1)]);
   return Object.fromEntries(entries);
 }
 
@@ -283,7 +291,8 @@ function knownKinds(): string {
   return Object.keys(SLOT_NAMES).join(', ');
 }
 
-function readNode(x: unknown, path: string): ModelNode {
+function readNode(x: unknown, path: string, depth = 0): ModelNode {
+  tooDeep(path, depth);
   if (!isRecord(x)) fail(path, `expected a model node ({ kind, ... }), got ${showValue(x)}`);
   const kind = x['kind'];
   if (typeof kind !== 'string' || !Object.hasOwn(SLOT_NAMES, kind)) {
@@ -302,15 +311,15 @@ function readNode(x: unknown, path: string): ModelNode {
       const typo = extra.length > 0 ? ` (found ${extra.map((k) => `'${k}'`).join(', ')} instead?)` : '';
       fail(`${path}.${name}`, `missing from ${what}${typo}; expected ${SLOT_HINT}`);
     }
-    entries.push([name, readSlot(x[name], `${path}.${name}`, ` for the ${name} slot of ${what}`)]);
+    entries.push([name, readSlot(x[name], `${path}.${name}`, ` for the ${name} slot of ${what}`, depth + 1)]);
   }
-  for (const k of extra) entries.push([k, readField(x[k], `${path}.${k}`)]);
+  for (const k of extra) entries.push([k, readField(x[k], `${path}.${k}`, depth + 1)]);
   if (children !== undefined) {
     const of = x['of'];
     if (children === 'one') {
       if (!isRecord(of))
         fail(`${path}.of`, `expected the model node that ${what} acts on, got ${showValue(of)}`);
-      entries.push(['of', readNode(of, `${path}.of`)]);
+      entries.push(['of', readNode(of, `${path}.of`, depth + 1)]);
     } else {
       const count =
         children === 'two' ? 'an array of exactly two model nodes' : 'an array of one or more model nodes';
@@ -318,7 +327,7 @@ function readNode(x: unknown, path: string): ModelNode {
       if (children === 'two' ? of.length !== 2 : of.length === 0) {
         fail(`${path}.of`, `expected ${count}, got an array of ${of.length}`);
       }
-      entries.push(['of', of.map((c, i) => readNode(c, `${path}.of[${i}]`))]);
+      entries.push(['of', of.map((c, i) => readNode(c, `${path}.of[${i}]`, depth + 1))]);
     }
   }
   return Object.fromEntries(entries) as unknown as ModelNode;

@@ -16,7 +16,7 @@ import {
 } from './chromatic-slot.js';
 import { componentToString } from './component-nodes.js';
 import { type ModelJSON, modelToJSON } from './json.js';
-import { childrenOf, type ModelNode, SLOT_NAMES } from './nodes.js';
+import { childrenOf, MAX_MODEL_DEPTH, type ModelNode, SLOT_NAMES } from './nodes.js';
 import { isParam, type Param, type Slot } from './param.js';
 import { compilePlan, type Plan, runPlan } from './plan.js';
 
@@ -81,6 +81,32 @@ function achromatic(c: Cache, what: string): DualTerm[] {
   return c.terms;
 }
 const caches = new WeakMap<Model, Cache>();
+
+/** Depth of the tree under each node of a built model, so that wrapping a model checks only the new node. */
+const depths = new WeakMap<ModelNode, number>();
+
+/**
+ * Checks, without recursion, that a tree is at most {@link MAX_MODEL_DEPTH} nodes deep (the walks of the
+ * canonical form, JSON and comparison are recursive).
+ */
+function checkDepth(root: ModelNode): void {
+  let deepest = 0;
+  const stack: Array<readonly [ModelNode, number]> = [[root, 1]];
+  while (stack.length > 0) {
+    const [n, d] = stack.pop()!;
+    const known = depths.get(n);
+    const reach = known === undefined ? d : d + known - 1;
+    if (reach > MAX_MODEL_DEPTH) {
+      throw new ModelError(
+        `${root.kind}: the model is nested more than ${MAX_MODEL_DEPTH} nodes deep; combine components with sum(...) rather than by chaining thousands of operators`,
+        { modelPath: root.kind },
+      );
+    }
+    if (reach > deepest) deepest = reach;
+    if (known === undefined) for (const c of childrenOf(n)) stack.push([c, d + 1]);
+  }
+  depths.set(root, deepest);
+}
 
 function collectParams(node: ModelNode, into: Map<string, Param>, path: string): void {
   // children first: parameters are listed in the order the model was built
@@ -331,6 +357,7 @@ export class Model {
 
   /** @internal Use the factories; this checks every slot and freezes the model. */
   constructor(node: ModelNode) {
+    checkDepth(node);
     const frozen = freezeDeep(node);
     const params = new Map<string, Param>();
     collectParams(frozen, params, frozen.kind);

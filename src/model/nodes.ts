@@ -117,6 +117,14 @@ export const SLOT_NAMES: Readonly<Record<NodeKind, readonly string[]>> = Object.
   ...COMPONENT_SLOT_NAMES,
 });
 
+/**
+ * Deepest nesting of nodes a model may have (a sum of a shifted disk is 3 deep; real models stay below a few
+ * tens). Canonicalisation, JSON and comparison walk the tree recursively, and this bound keeps them well inside
+ * the call stack of every runtime, so a deeper tree (for instance from a hostile JSON document) is a
+ * ModelError instead of a stack overflow.
+ */
+export const MAX_MODEL_DEPTH = 500;
+
 /** The children of a node (empty for primitives). */
 export function childrenOf(node: ModelNode): readonly ModelNode[] {
   if (!('of' in node)) return [];

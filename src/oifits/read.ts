@@ -149,6 +149,15 @@ export function readOifits(bytes: Uint8Array | ArrayBuffer, options: ReadOifitsO
     if (layout.rowBytes * layout.nrows + layout.heapBytes > hdu.dataBytes) {
       fail(file, where, `the table declares more bytes than its data part holds`);
     }
+    if (layout.rowBytes === 0 && layout.nrows > 0) {
+      // Rows of zero bytes would let NAXIS2 run beyond anything the file holds; every OIFITS table has
+      // mandatory columns of at least one element, so such a table cannot be OIFITS.
+      fail(
+        file,
+        { ...where, keyword: 'NAXIS2' },
+        `NAXIS2 = ${layout.nrows} rows of NAXIS1 = 0 bytes each; an OIFITS table has columns, so its rows cannot be empty`,
+      );
+    }
     if (layout.heapBytes > 0)
       warnings.add(where, `a heap of ${layout.heapBytes} bytes (variable-length arrays) is ignored`);
     const decoded = decodeTable(u8, hdu.dataOffset, hdu.header, layout, file, where);

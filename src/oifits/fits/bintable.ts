@@ -322,13 +322,15 @@ export function decodeTable(
   for (const f of layout.fields) {
     const r = f.tform.repeat;
     const n = nrows * r;
+    // a field of zero width holds nothing: skip its rows, so decoding costs time in bytes, not in rows x fields
+    const rows = f.tform.bytes === 0 ? 0 : nrows;
     let data: ColumnData;
     let p0 = dataOffset + f.offset;
     switch (f.tform.code) {
       case 'D': {
         const a = new Float64Array(n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0, p = p0; j < r; j++, p += 8) a[k++] = dv.getFloat64(p, false);
         }
         data = a;
@@ -337,7 +339,7 @@ export function decodeTable(
       case 'E': {
         const a = new Float32Array(n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0, p = p0; j < r; j++, p += 4) a[k++] = dv.getFloat32(p, false);
         }
         data = a;
@@ -346,7 +348,7 @@ export function decodeTable(
       case 'M': {
         const a = new Float64Array(2 * n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0, p = p0; j < 2 * r; j++, p += 8) a[k++] = dv.getFloat64(p, false);
         }
         data = a;
@@ -355,7 +357,7 @@ export function decodeTable(
       case 'C': {
         const a = new Float32Array(2 * n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0, p = p0; j < 2 * r; j++, p += 4) a[k++] = dv.getFloat32(p, false);
         }
         data = a;
@@ -364,7 +366,7 @@ export function decodeTable(
       case 'J': {
         const a = new Int32Array(n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0, p = p0; j < r; j++, p += 4) a[k++] = dv.getInt32(p, false);
         }
         data = a;
@@ -373,7 +375,7 @@ export function decodeTable(
       case 'I': {
         const a = new Int16Array(n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0, p = p0; j < r; j++, p += 2) a[k++] = dv.getInt16(p, false);
         }
         data = a;
@@ -382,7 +384,7 @@ export function decodeTable(
       case 'K': {
         const a = new Float64Array(n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0, p = p0; j < r; j++, p += 8) {
             const hi = dv.getInt32(p, false);
             const v = hi * 4294967296 + dv.getUint32(p + 4, false);
@@ -402,7 +404,7 @@ export function decodeTable(
       case 'B': {
         const a = new Uint8Array(n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           a.set(bytes.subarray(p0, p0 + r), k);
           k += r;
         }
@@ -412,7 +414,7 @@ export function decodeTable(
       case 'L': {
         const a = new Uint8Array(n);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let j = 0; j < r; j++) {
             const b = bytes[p0 + j]!;
             if (b === 0x54) a[k++] = 1;
@@ -435,7 +437,7 @@ export function decodeTable(
         const per = w === 0 ? 0 : Math.floor(r / w);
         const out: string[] = new Array(nrows * per);
         let k = 0;
-        for (let row = 0; row < nrows; row++, p0 += rowBytes) {
+        for (let row = 0; row < rows; row++, p0 += rowBytes) {
           for (let s = 0; s < per; s++) out[k++] = readString(bytes, p0 + s * w, w);
         }
         data = out;
@@ -445,7 +447,7 @@ export function decodeTable(
         // X, P, Q: kept as raw bytes (OIFITS uses none of them).
         const wb = f.tform.bytes;
         const a = new Uint8Array(nrows * wb);
-        for (let row = 0, k = 0; row < nrows; row++, p0 += rowBytes, k += wb)
+        for (let row = 0, k = 0; row < rows; row++, p0 += rowBytes, k += wb)
           a.set(bytes.subarray(p0, p0 + wb), k);
         data = a;
       }

@@ -127,6 +127,20 @@ export interface ParsedHeader {
  */
 export function parseHeader(bytes: Uint8Array, offset: number, file: string, hdu: number): ParsedHeader {
   const cards: HeaderCard[] = [];
+  // A long string continued over CONTINUE cards (FITS 4.0 section 4.2.1.2) is kept in pieces and joined once
+  // it ends, so that the time taken stays linear in the number of cards (joining card by card copies the
+  // whole string each time).
+  let open: { pieces: string[]; comment: string | undefined } | null = null;
+  const close = (): void => {
+    if (open === null) return;
+    const first = cards[cards.length - 1]!;
+    const value = open.pieces.join('');
+    cards[cards.length - 1] =
+      open.comment === undefined
+        ? { keyword: first.keyword, kind: 'string', value }
+        : { keyword: first.keyword, kind: 'string', value, comment: open.comment };
+    open = null;
+  };
   let pos = offset;
   let cardNo = 0;
   for (;;) {
@@ -152,30 +166,38 @@ export function parseHeader(bytes: Uint8Array, offset: number, file: string, hdu
     const where: Where = { hdu, keyword };
     if (keyword === 'CONTINUE') {
       const prev = cards[cards.length - 1];
-      if (prev && prev.kind === 'string' && typeof prev.value === 'string' && prev.value.endsWith('&')) {
+      const last: string | undefined =
+        open !== null
+          ? open.pieces[open.pieces.length - 1]!
+          : prev && prev.kind === 'string' && typeof prev.value === 'string'
+            ? prev.value
+            : undefined;
+      if (prev && last?.endsWith('&')) {
         const cont = parseValueField(text.slice(8), file, where, cardNo);
         if (cont.kind === 'string') {
-          const joined = prev.value.slice(0, -1) + (cont.value as string);
-          const comment =
-            prev.comment !== undefined || cont.comment !== undefined
-              ? `${prev.comment ?? ''}${prev.comment && cont.comment ? ' ' : ''}${cont.comment ?? ''}`
+          if (open === null) open = { pieces: [last], comment: prev.comment };
+          open.pieces[open.pieces.length - 1] = last.slice(0, -1);
+          open.pieces.push(cont.value as string);
+          const c = open.comment;
+          open.comment =
+            c !== undefined || cont.comment !== undefined
+              ? `${c ?? ''}${c && cont.comment ? ' ' : ''}${cont.comment ?? ''}`
               : undefined;
-          cards[cards.length - 1] =
-            comment === undefined
-              ? { keyword: prev.keyword, kind: 'string', value: joined }
-              : { keyword: prev.keyword, kind: 'string', value: joined, comment };
           continue;
         }
       }
+      close();
       cards.push({ keyword, kind: 'commentary', comment: text.slice(8).trimEnd() });
       continue;
     }
+    close();
     if (COMMENTARY.has(keyword) || text.slice(8, 10) !== '= ') {
       cards.push({ keyword, kind: 'commentary', comment: text.slice(8).trimEnd() });
       continue;
     }
     cards.push({ keyword, ...parseValueField(text.slice(10), file, where, cardNo) });
   }
+  close();
   const end = offset + Math.ceil((pos - offset) / BLOCK_LENGTH) * BLOCK_LENGTH;
   if (end > bytes.length) {
     fail(
