@@ -57,6 +57,8 @@ interface JTerm {
   readonly complex: boolean;
   /** True when a factor has kernel coefficients. */
   readonly coefficients: boolean;
+  /** True when some free parameter moves the shift. */
+  readonly shiftMoves: boolean;
   readonly codes: Int32Array;
   readonly radialKernels: readonly (RadialDerivativeKernel | null)[];
   readonly complexKernels: readonly (ComplexDerivativeKernel | null)[];
@@ -193,6 +195,7 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
     maxSlopes = Math.max(maxSlopes, slopes);
     const idx: number[] = [];
     const coef: number[] = [];
+    let shiftMoves = false;
     for (let j = 0; j < cols; j++) {
       const row = new Array<number>(stride).fill(0);
       row[0] = gradOf(t.flux, j);
@@ -226,6 +229,7 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
           row[coefOff[k]! + i] = s;
         }
       });
+      if (row[1] !== 0 || row[2] !== 0) shiftMoves = true;
       if (row.some((x) => x !== 0)) {
         idx.push(j);
         coef.push(...row);
@@ -241,6 +245,7 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
       nf,
       complex,
       coefficients: p.some((x) => x.length > 0),
+      shiftMoves,
       codes,
       radialKernels,
       complexKernels,
@@ -415,16 +420,24 @@ export function runJacobian(
       }
       const coef = t.coef;
       const stride = t.stride;
-      if (nf === 1 && !t.coefficients) {
-        // the common case: one factor without coefficients (disk, Gaussian, ring, ...), geometry at 3..5
-        const g0 = others[0]! * gv[0]!;
+      if (nf <= 1 && !t.coefficients) {
+        // the common cases: a point, or one factor without coefficients (disk, Gaussian, ring, ...) whose
+        // geometry entries sit at 3..5
+        const g0 = nf === 1 ? others[0]! * gv[0]! : 0;
+        const moves = t.shiftMoves;
         for (let q = 0; q < na; q++) {
           const j = idx[q]!;
           const o = q * stride;
-          const w = coef[o]! * prod + g0 * (coef[o + 3]! * u2 + coef[o + 4]! * uv2 + coef[o + 5]! * v2);
-          const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
-          dfr[j] = dfr[j]! + w * c + ws * tim;
-          dfi[j] = dfi[j]! + w * sn - ws * tre;
+          let w = coef[o]! * prod;
+          if (nf === 1) w += g0 * (coef[o + 3]! * u2 + coef[o + 4]! * uv2 + coef[o + 5]! * v2);
+          if (moves) {
+            const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
+            dfr[j] = dfr[j]! + w * c + ws * tim;
+            dfi[j] = dfi[j]! + w * sn - ws * tre;
+          } else {
+            dfr[j] = dfr[j]! + w * c;
+            dfi[j] = dfi[j]! + w * sn;
+          }
         }
         continue;
       }
