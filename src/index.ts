@@ -80,5 +80,6 @@ export {
   visibilityJacobian,
   type WavelengthColumns,
 } from './observe/jacobian.js';
+export { type AtWavelengthsOptions, atWavelengths, type WavelengthModel } from './observe/adapter.js';
 export { parameterVector } from './observe/parameters.js';
 export * from './units/index.js';

@@ -39,5 +39,11 @@ export { type Random, seededRandom } from './random.js';
 export { type ReadOifitsOptions, readOifits } from './read.js';
 export type { OiTableName } from './schema.js';
 export { type OifitsSelection, type Range, selectOifits } from './select.js';
-export { type SimulateOptions, type Simulation, type SimulationModel, simulate } from './simulate.js';
+export {
+  type SimulateOptions,
+  type Simulation,
+  type SimulationModel,
+  simulate,
+  type WavelengthSimulationModel,
+} from './simulate.js';
 export { type WriteOifitsOptions, writeOifits } from './write.js';

@@ -39,6 +39,42 @@ export interface SimulationModel {
   ): Float64Array;
 }
 
+/**
+ * A model that also takes each point's wavelength and channel width (EFF_WAVE, EFF_BAND in metres) after the
+ * spatial frequencies; it says so with `takesWavelengths: true` (the observe layer's `atWavelengths` builds one).
+ */
+export interface WavelengthSimulationModel {
+  readonly takesWavelengths: true;
+  visibilities(
+    u: ArrayLike<number>,
+    v: ArrayLike<number>,
+    wavelength: Float64Array,
+    band: Float64Array,
+  ): { re: Float64Array; im: Float64Array };
+  vis2(
+    u: ArrayLike<number>,
+    v: ArrayLike<number>,
+    wavelength: Float64Array,
+    band: Float64Array,
+  ): Float64Array;
+  closurePhase(
+    u1: ArrayLike<number>,
+    v1: ArrayLike<number>,
+    u2: ArrayLike<number>,
+    v2: ArrayLike<number>,
+    wavelength: Float64Array,
+    band: Float64Array,
+  ): Float64Array;
+  t3amp(
+    u1: ArrayLike<number>,
+    v1: ArrayLike<number>,
+    u2: ArrayLike<number>,
+    v2: ArrayLike<number>,
+    wavelength: Float64Array,
+    band: Float64Array,
+  ): Float64Array;
+}
+
 /** Options of {@link simulate}. */
 export interface SimulateOptions {
   /** Add Gaussian noise with the standard deviation of each value's stated error (default false). */
@@ -82,7 +118,8 @@ function checkOutput(name: string, out: unknown, n: number): Float64Array {
  * Fills a dataset's observables with a model's predictions and writes the result as an OIFITS 2 file.
  *
  * @param model - any object with `visibilities`, `vis2`, `closurePhase` (degrees) and `t3amp`, taking u, v in
- *   cycles per radian (see {@link SimulationModel})
+ *   cycles per radian (see {@link SimulationModel}); or one that also takes wavelengths and channel widths
+ *   ({@link WavelengthSimulationModel}, e.g. `atWavelengths(model)`) for wavelength-dependent models
  * @param dataset - supplies the uv coverage, wavelengths, errors and flags; not changed
  * @param options - `noise` to add Gaussian noise N(0, error) to each value, `seed` for it, `write` options
  * @returns the new dataset and its file bytes
@@ -100,7 +137,7 @@ function checkOutput(name: string, out: unknown, n: number): Float64Array {
  * ```
  */
 export function simulate(
-  model: SimulationModel,
+  model: SimulationModel | WavelengthSimulationModel,
   dataset: OifitsDataset,
   options: SimulateOptions = {},
 ): Simulation {
@@ -114,6 +151,31 @@ export function simulate(
       );
     }
   }
+  // only a model that declares it takes wavelengths gets them (a Model's third argument is an output buffer)
+  const withWave = (model as Partial<WavelengthSimulationModel>).takesWavelengths === true;
+  const m = model as WavelengthSimulationModel;
+  const call = {
+    vis2: (u: Float64Array, v: Float64Array, w: Float64Array, b: Float64Array) =>
+      withWave ? m.vis2(u, v, w, b) : (model as SimulationModel).vis2(u, v),
+    visibilities: (u: Float64Array, v: Float64Array, w: Float64Array, b: Float64Array) =>
+      withWave ? m.visibilities(u, v, w, b) : (model as SimulationModel).visibilities(u, v),
+    closurePhase: (
+      a: Float64Array,
+      b: Float64Array,
+      c: Float64Array,
+      d: Float64Array,
+      w: Float64Array,
+      bw: Float64Array,
+    ) => (withWave ? m.closurePhase(a, b, c, d, w, bw) : (model as SimulationModel).closurePhase(a, b, c, d)),
+    t3amp: (
+      a: Float64Array,
+      b: Float64Array,
+      c: Float64Array,
+      d: Float64Array,
+      w: Float64Array,
+      bw: Float64Array,
+    ) => (withWave ? m.t3amp(a, b, c, d, w, bw) : (model as SimulationModel).t3amp(a, b, c, d)),
+  };
   const rng = seededRandom(options.seed ?? 1);
   const noise = options.noise === true;
   const full = flattenTables(dataset.tables, dataset.targets);
@@ -149,12 +211,12 @@ export function simulate(
 
   // OI_VIS2.
   const v2 = full.vis2;
-  const p2 = checkOutput('vis2', model.vis2(v2.u, v2.v), v2.length);
+  const p2 = checkOutput('vis2', call.vis2(v2.u, v2.v, v2.wavelength, v2.band), v2.length);
   const vis2 = scatter(dataset.tables.vis2, v2, 'VIS2DATA', 'VIS2ERR', p2, false);
 
   // OI_VIS.
   const vv = full.vis;
-  const cv = model.visibilities(vv.u, vv.v);
+  const cv = call.visibilities(vv.u, vv.v, vv.wavelength, vv.band);
   const re = checkOutput('visibilities (re)', cv?.re, vv.length);
   const im = checkOutput('visibilities (im)', cv?.im, vv.length);
   const amp = new Float64Array(vv.length);
@@ -174,8 +236,16 @@ export function simulate(
 
   // OI_T3.
   const t3v = full.t3;
-  const cp = checkOutput('closurePhase', model.closurePhase(t3v.u1, t3v.v1, t3v.u2, t3v.v2), t3v.length);
-  const ta = checkOutput('t3amp', model.t3amp(t3v.u1, t3v.v1, t3v.u2, t3v.v2), t3v.length);
+  const cp = checkOutput(
+    'closurePhase',
+    call.closurePhase(t3v.u1, t3v.v1, t3v.u2, t3v.v2, t3v.wavelength, t3v.band),
+    t3v.length,
+  );
+  const ta = checkOutput(
+    't3amp',
+    call.t3amp(t3v.u1, t3v.v1, t3v.u2, t3v.v2, t3v.wavelength, t3v.band),
+    t3v.length,
+  );
   let t3 = scatter(dataset.tables.t3, t3v, 'T3PHI', 'T3PHIERR', cp, true);
   t3 = scatter(t3, t3v, 'T3AMP', 'T3AMPERR', ta, false);
 
