@@ -67,6 +67,7 @@ export {
 export type * from './model/nodes.js';
 export { fixed, isParam, type Param, type ParamOptions, param, type Slot } from './model/param.js';
 export { type Plan, type PlanFactor, type PlanTerm, ZERO_FLUX_FRACTION } from './model/plan.js';
+export { type AtWavelengthsOptions, atWavelengths, type WavelengthModel } from './observe/adapter.js';
 export * from './observe/chromatic.js';
 export {
   type JacobianBuffers,
@@ -76,10 +77,10 @@ export {
   type ObservableName,
   observableJacobian,
   observableValues,
+  type ParameterValues,
   type VisibilityJacobian,
   visibilityJacobian,
   type WavelengthColumns,
 } from './observe/jacobian.js';
-export { type AtWavelengthsOptions, atWavelengths, type WavelengthModel } from './observe/adapter.js';
 export { parameterVector } from './observe/parameters.js';
 export * from './units/index.js';

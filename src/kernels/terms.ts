@@ -7,8 +7,13 @@
  *
  * @module
  */
-import { besselJ0, diskAmplitude } from './bessel.js';
-import { SIN_COS, sinCosTurns } from './sincos.js';
+import { besselJ0 as besselJ0Import, diskAmplitude as diskAmplitudeImport } from './bessel.js';
+import { quadraticLimbAmplitude as quadraticLimbAmplitudeImport } from './components.js';
+import { SIN_COS as SIN_COS_IMPORT, sinCosPhase as sinCosPhaseImport, splitHead } from './sincos.js';
+
+// Every loop below copies the imported kernels and the SIN_COS buffer into locals before it starts: a read of
+// an imported binding inside a hot loop is a module-cell load with a check that the binding is initialised,
+// and measured (benchmarks/run.ts, sincos floor) it made a phase ramp about three times slower than with locals.
 
 /** pi^2 / (4 ln 2): the Gaussian exponent per unit (FWHM q)^2. */
 export const GAUSS_K = (Math.PI * Math.PI) / (4 * Math.LN2);
@@ -36,12 +41,18 @@ export function addPointTerm(
   e0: number,
   n0: number,
 ): void {
+  const sinCosPhase = sinCosPhaseImport;
+  const eh = splitHead(e0);
+  const el = e0 - eh;
+  const nh = splitHead(n0);
+  const nl = n0 - nh;
+  const SIN_COS = SIN_COS_IMPORT;
   if (e0 === 0 && n0 === 0) {
     for (let i = 0; i < n; i++) re[i] = re[i]! + flux;
     return;
   }
   for (let i = 0; i < n; i++) {
-    sinCosTurns(u[i]! * e0 + v[i]! * n0);
+    sinCosPhase(u[i]!, v[i]!, eh, el, nh, nl);
     re[i] = re[i]! + flux * SIN_COS[1]!;
     im[i] = im[i]! - flux * SIN_COS[0]!;
   }
@@ -69,6 +80,8 @@ export function mulRadial(
   m12: number,
   m22: number,
 ): void {
+  const diskAmplitude = diskAmplitudeImport;
+  const besselJ0 = besselJ0Import;
   const m12x2 = 2 * m12;
   switch (code) {
     case RADIAL_UNIFORM_DISK:
@@ -120,6 +133,14 @@ export function addRadialTerm(
   e0: number,
   n0: number,
 ): void {
+  const sinCosPhase = sinCosPhaseImport;
+  const eh = splitHead(e0);
+  const el = e0 - eh;
+  const nh = splitHead(n0);
+  const nl = n0 - nh;
+  const SIN_COS = SIN_COS_IMPORT;
+  const diskAmplitude = diskAmplitudeImport;
+  const besselJ0 = besselJ0Import;
   const m12x2 = 2 * m12;
   const shifted = e0 !== 0 || n0 !== 0;
   switch (code) {
@@ -130,7 +151,7 @@ export function addRadialTerm(
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * diskAmplitude(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          sinCosTurns(uu * e0 + vv * n0);
+          sinCosPhase(uu, vv, eh, el, nh, nl);
           re[i] = re[i]! + a * SIN_COS[1]!;
           im[i] = im[i]! - a * SIN_COS[0]!;
         }
@@ -150,7 +171,7 @@ export function addRadialTerm(
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
-          sinCosTurns(uu * e0 + vv * n0);
+          sinCosPhase(uu, vv, eh, el, nh, nl);
           re[i] = re[i]! + a * SIN_COS[1]!;
           im[i] = im[i]! - a * SIN_COS[0]!;
         }
@@ -170,7 +191,7 @@ export function addRadialTerm(
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * besselJ0(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          sinCosTurns(uu * e0 + vv * n0);
+          sinCosPhase(uu, vv, eh, el, nh, nl);
           re[i] = re[i]! + a * SIN_COS[1]!;
           im[i] = im[i]! - a * SIN_COS[0]!;
         }
@@ -201,14 +222,160 @@ export function addAmplitudeTerm(
   e0: number,
   n0: number,
 ): void {
+  const sinCosPhase = sinCosPhaseImport;
+  const eh = splitHead(e0);
+  const el = e0 - eh;
+  const nh = splitHead(n0);
+  const nl = n0 - nh;
+  const SIN_COS = SIN_COS_IMPORT;
   if (e0 === 0 && n0 === 0) {
     for (let i = 0; i < n; i++) re[i] = re[i]! + amp[i]!;
     return;
   }
   for (let i = 0; i < n; i++) {
-    sinCosTurns(u[i]! * e0 + v[i]! * n0);
+    sinCosPhase(u[i]!, v[i]!, eh, el, nh, nl);
     const a = amp[i]!;
     re[i] = re[i]! + a * SIN_COS[1]!;
     im[i] = im[i]! - a * SIN_COS[0]!;
+  }
+}
+
+/**
+ * Adds a term that is a product of foundation radial factors (uniform disk, Gaussian, thin ring), each seen
+ * through its own quadratic form, `flux * prod_f P_f(sqrt(q^T M_f q)) * exp(-2 pi i (u e0 + v n0))`, in one
+ * pass over the points with no scratch buffer (a convolution such as `gaussianRing` gives such terms).
+ *
+ * @param codes - RADIAL_* code of each factor
+ * @param m - per factor the entries m11, m12, m22 of M = A A^T (rad^2), 3 numbers per factor
+ * @param nf - number of factors (codes.length)
+ * @param re - real parts to add into
+ * @param im - imaginary parts to add into
+ * @param u - spatial frequencies east (cycles/rad)
+ * @param v - spatial frequencies north (cycles/rad)
+ * @param n - number of points
+ * @param flux - term flux
+ * @param e0 - shift east, rad
+ * @param n0 - shift north, rad
+ *
+ * Notes: gives the same numbers as multiplying the factors one loop at a time ({@link mulRadial}) and adding the
+ * ramp ({@link addAmplitudeTerm}): the factors are multiplied into the flux in the same order.
+ */
+export function addRadialProductTerm(
+  codes: Int32Array,
+  m: Float64Array,
+  nf: number,
+  re: Float64Array,
+  im: Float64Array,
+  u: Float64Array,
+  v: Float64Array,
+  n: number,
+  flux: number,
+  e0: number,
+  n0: number,
+): void {
+  const sinCosPhase = sinCosPhaseImport;
+  const eh = splitHead(e0);
+  const el = e0 - eh;
+  const nh = splitHead(n0);
+  const nl = n0 - nh;
+  const SIN_COS = SIN_COS_IMPORT;
+  const diskAmplitude = diskAmplitudeImport;
+  const besselJ0 = besselJ0Import;
+  const shifted = e0 !== 0 || n0 !== 0;
+  for (let f = 0; f < nf; f++) {
+    const c = codes[f]!;
+    if (c !== RADIAL_UNIFORM_DISK && c !== RADIAL_GAUSSIAN && c !== RADIAL_THIN_RING) {
+      throw new Error(`addRadialProductTerm: unknown kernel code ${c}`);
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    const uu = u[i]!;
+    const vv = v[i]!;
+    let a = flux;
+    for (let f = 0; f < nf; f++) {
+      const o = 3 * f;
+      // the same expression (and rounding) as mulRadial's
+      const r2raw = m[o]! * uu * uu + 2 * m[o + 1]! * uu * vv + m[o + 2]! * vv * vv;
+      const r2 = r2raw > 0 ? r2raw : 0;
+      const c = codes[f]!;
+      if (c === RADIAL_GAUSSIAN) a *= Math.exp(-GAUSS_K * r2);
+      else if (c === RADIAL_UNIFORM_DISK) a *= diskAmplitude(Math.PI * Math.sqrt(r2));
+      else a *= besselJ0(Math.PI * Math.sqrt(r2));
+    }
+    if (shifted) {
+      sinCosPhase(uu, vv, eh, el, nh, nl);
+      re[i] = re[i]! + a * SIN_COS[1]!;
+      im[i] = im[i]! - a * SIN_COS[0]!;
+    } else re[i] = re[i]! + a;
+  }
+}
+
+/**
+ * Adds a term with one linearly or quadratically limb-darkened disk factor,
+ * `flux * V_LD(pi sqrt(q^T M q)) * exp(-2 pi i (u e0 + v n0))`, in one pass.
+ *
+ * @param re - real parts to add into
+ * @param im - imaginary parts to add into
+ * @param u - spatial frequencies east (cycles/rad)
+ * @param v - spatial frequencies north (cycles/rad)
+ * @param n - number of points
+ * @param flux - term flux
+ * @param m11 - M = A A^T entries (rad^2)
+ * @param m12 - off-diagonal entry
+ * @param m22 - second diagonal entry
+ * @param e0 - shift east, rad
+ * @param n0 - shift north, rad
+ * @param c1 - weight of 2 J1(x)/x (see limbDarkenedCoefficients in components.ts)
+ * @param c32 - weight of L_{3/2}(x) = 3 (sin x - x cos x) / x^3
+ * @param c2 - weight of 8 J2(x)/x^2 (0 for the linear law)
+ *
+ * Notes: the same arithmetic, in the same order, as `quadraticLimbAmplitude` of components.ts (so the same
+ * numbers), written out here with local copies of the kernels so that the loop pays no imported-binding loads.
+ */
+export function addLimbDarkenedTerm(
+  re: Float64Array,
+  im: Float64Array,
+  u: Float64Array,
+  v: Float64Array,
+  n: number,
+  flux: number,
+  m11: number,
+  m12: number,
+  m22: number,
+  e0: number,
+  n0: number,
+  c1: number,
+  c32: number,
+  c2: number,
+): void {
+  const sinCosPhase = sinCosPhaseImport;
+  const eh = splitHead(e0);
+  const el = e0 - eh;
+  const nh = splitHead(n0);
+  const nl = n0 - nh;
+  const SIN_COS = SIN_COS_IMPORT;
+  const diskAmplitude = diskAmplitudeImport;
+  const besselJ0 = besselJ0Import;
+  const nearZero = quadraticLimbAmplitudeImport;
+  const m12x2 = 2 * m12;
+  const shifted = e0 !== 0 || n0 !== 0;
+  for (let i = 0; i < n; i++) {
+    const uu = u[i]!;
+    const vv = v[i]!;
+    const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
+    const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
+    let p: number;
+    if (x < 2) p = nearZero(x, c1, c32, c2);
+    else {
+      const d = diskAmplitude(x);
+      const l32 = (3 * (Math.sin(x) - x * Math.cos(x))) / (x * x * x);
+      p = c1 * d + c32 * l32 + (c2 === 0 ? 0 : (8 * c2 * (d - besselJ0(x))) / (x * x));
+    }
+    const a = flux * p;
+    if (shifted) {
+      sinCosPhase(uu, vv, eh, el, nh, nl);
+      re[i] = re[i]! + a * SIN_COS[1]!;
+      im[i] = im[i]! - a * SIN_COS[0]!;
+    } else re[i] = re[i]! + a;
   }
 }

@@ -5,6 +5,7 @@
  */
 import { Complex } from 'complex.js';
 import { InputError, ModelError } from '../errors.js';
+import { PixelGrid, RadialTable } from '../kernels/tabulated.js';
 import { DEG_PER_RAD } from '../units/index.js';
 import { canonicalise, type DualTerm, FACTOR_KINDS, type FactorKind } from './canonical.js';
 import {
@@ -264,7 +265,7 @@ interface NormFactor {
   shape: number[];
   /** A A^T (3 entries) for radial kinds, A (4 entries) otherwise. */
   key: number[];
-  /** Tabulated data, compared by identity. */
+  /** Tabulated data, compared by content (see {@link sameData}). */
   data?: unknown;
 }
 interface NormTerm {
@@ -298,6 +299,30 @@ function normFactors(factors: readonly TermFactor[]): NormFactor[] {
   return out;
 }
 
+function sameSamples(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  let scale = 0;
+  for (let i = 0; i < a.length; i++) scale = Math.max(scale, Math.abs(a[i]!), Math.abs(b[i]!));
+  for (let i = 0; i < a.length; i++) if (!closeTo(a[i]!, b[i]!, EQUALS_TOLERANCE * scale)) return false;
+  return true;
+}
+
+/**
+ * Whether two tabulated factors describe the same image: the same profile samples (radial profiles; the table's
+ * extent only decides how V is computed) or the same normalised pixels on the same grid (pixel images). A copy
+ * read back from JSON holds new arrays, so identity alone would make it unequal to its original.
+ */
+function sameData(a: unknown, b: unknown): boolean {
+  if (a === b) return true;
+  if (a instanceof RadialTable && b instanceof RadialTable) {
+    return sameSamples(a.radii, b.radii) && sameSamples(a.intensity, b.intensity);
+  }
+  if (a instanceof PixelGrid && b instanceof PixelGrid) {
+    return a.nx === b.nx && a.ny === b.ny && sameSamples(a.pixels, b.pixels);
+  }
+  return false;
+}
+
 function factorsEqual(a: NormFactor[], b: NormFactor[]): boolean {
   if (a.length !== b.length) return false;
   const used = new Array<boolean>(b.length).fill(false);
@@ -306,7 +331,7 @@ function factorsEqual(a: NormFactor[], b: NormFactor[]): boolean {
       const fb = b[j]!;
       if (used[j] || fb.kind !== fa.kind || fb.shape.length !== fa.shape.length) continue;
       if (!fa.shape.every((x, i) => closeTo(x, fb.shape[i]!, 0))) continue;
-      if (fa.data !== fb.data) continue;
+      if (!sameData(fa.data, fb.data)) continue;
       const scale = Math.max(...fa.key.map(Math.abs), ...fb.key.map(Math.abs));
       if (!fa.key.every((x, i) => closeTo(x, fb.key[i]!, EQUALS_TOLERANCE * scale + 1e-18))) continue;
       used[j] = true;

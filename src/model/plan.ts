@@ -5,11 +5,12 @@
  * @module
  */
 import { ModelError } from '../errors.js';
+import { RADIAL_LINEAR_LD, RADIAL_QUADRATIC_LD } from '../kernels/components.js';
 import {
-  addAmplitudeTerm,
+  addLimbDarkenedTerm,
   addPointTerm,
+  addRadialProductTerm,
   addRadialTerm,
-  mulRadial,
   RADIAL_GAUSSIAN,
   RADIAL_THIN_RING,
   RADIAL_UNIFORM_DISK,
@@ -59,6 +60,11 @@ export interface PlanTerm {
   readonly e0: number;
   readonly n0: number;
   readonly factors: readonly PlanFactor[];
+  /**
+   * @internal How {@link runPlan} evaluates the term: its factors' codes and quadratic forms packed for one
+   * fused loop (foundation radial products), or null when the term goes through the general loops.
+   */
+  readonly fused?: { readonly codes: Int32Array; readonly m: Float64Array } | null;
 }
 
 /** A compiled model: terms in radians with kernel codes, the total flux, and scratch buffers. */
@@ -109,7 +115,14 @@ export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
         m22: (a21 * a21 + a22 * a22) * s,
       };
     });
-    out.push({ flux: t.flux.v, e0: t.east.v * RAD_PER_MAS, n0: t.north.v * RAD_PER_MAS, factors });
+    const foundation = factors.length > 1 && factors.every((f) => !isComponentFactor(f));
+    const fused = foundation
+      ? {
+          codes: Int32Array.from(factors, (f) => f.code),
+          m: Float64Array.from(factors.flatMap((f) => [f.m11, f.m12, f.m22])),
+        }
+      : null;
+    out.push({ flux: t.flux.v, e0: t.east.v * RAD_PER_MAS, n0: t.north.v * RAD_PER_MAS, factors, fused });
   }
   if (!(Math.abs(total) >= ZERO_FLUX_FRACTION * absTotal) || absTotal === 0) {
     throw new ModelError(
@@ -143,19 +156,22 @@ export function runPlan(
   im.fill(0, 0, n);
   for (const t of plan.terms) {
     const nf = t.factors.length;
-    if (t.factors.some(isComponentFactor)) {
+    const f0 = t.factors[0];
+    if (nf === 1 && (f0!.code === RADIAL_LINEAR_LD || f0!.code === RADIAL_QUADRATIC_LD)) {
+      const p = f0!.p;
+      const c2 = f0!.code === RADIAL_QUADRATIC_LD ? p[2]! : 0;
+      addLimbDarkenedTerm(re, im, u, v, n, t.flux, f0!.m11, f0!.m12, f0!.m22, t.e0, t.n0, p[0]!, p[1]!, c2);
+    } else if (t.factors.some(isComponentFactor)) {
       addComponentTerm(plan, t.flux, t.e0, t.n0, t.factors, u, v, re, im, n);
     } else if (nf === 0) {
       addPointTerm(re, im, u, v, n, t.flux, t.e0, t.n0);
     } else if (nf === 1) {
-      const f = t.factors[0]!;
+      const f = f0!;
       addRadialTerm(f.code, re, im, u, v, n, t.flux, f.m11, f.m12, f.m22, t.e0, t.n0);
     } else {
-      if (plan.scratch.length < n) plan.scratch = new Float64Array(n);
-      const amp = plan.scratch;
-      amp.fill(t.flux, 0, n);
-      for (const f of t.factors) mulRadial(f.code, amp, u, v, n, f.m11, f.m12, f.m22);
-      addAmplitudeTerm(re, im, amp, u, v, n, t.e0, t.n0);
+      // a product of foundation kinds (compilePlan packed it): one fused pass, no scratch
+      const fused = t.fused!;
+      addRadialProductTerm(fused.codes, fused.m, nf, re, im, u, v, n, t.flux, t.e0, t.n0);
     }
   }
   const k = 1 / plan.totalFlux;

@@ -14,6 +14,7 @@
  */
 import { ModelError } from '../errors.js';
 import { besselJ0, besselJ1, diskAmplitude } from '../kernels/bessel.js';
+import { j0Piece, j1Piece } from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
 import { SIN_COS, sinCosTurns } from '../kernels/sincos.js';
@@ -37,6 +38,10 @@ const j2x2 = j2OverX2;
 const sinCos = sinCosTurns;
 const SC = SIN_COS;
 const GK = GAUSS_K;
+const j0p = j0Piece;
+const j1p = j1Piece;
+/** Where besselJ0 and besselJ1 leave their unit-interval polynomials for Hankel's form (bessel-j01.ts). */
+const PIECES_END = 12;
 
 /** Factor codes of the per-point loop: the three foundation kinds inline, then any radial, then complex. */
 const CODE_DISK = 0;
@@ -57,8 +62,6 @@ interface JTerm {
   readonly complex: boolean;
   /** True when a factor has kernel coefficients. */
   readonly coefficients: boolean;
-  /** True when some free parameter moves the shift. */
-  readonly shiftMoves: boolean;
   readonly codes: Int32Array;
   readonly radialKernels: readonly (RadialDerivativeKernel | null)[];
   readonly complexKernels: readonly (ComplexDerivativeKernel | null)[];
@@ -195,7 +198,6 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
     maxSlopes = Math.max(maxSlopes, slopes);
     const idx: number[] = [];
     const coef: number[] = [];
-    let shiftMoves = false;
     for (let j = 0; j < cols; j++) {
       const row = new Array<number>(stride).fill(0);
       row[0] = gradOf(t.flux, j);
@@ -229,7 +231,6 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
           row[coefOff[k]! + i] = s;
         }
       });
-      if (row[1] !== 0 || row[2] !== 0) shiftMoves = true;
       if (row.some((x) => x !== 0)) {
         idx.push(j);
         coef.push(...row);
@@ -245,7 +246,6 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
       nf,
       complex,
       coefficients: p.some((x) => x.length > 0),
-      shiftMoves,
       codes,
       radialKernels,
       complexKernels,
@@ -271,6 +271,9 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
   return { cols, terms: out, total, dtotal, maxFactors, maxSlopes, maxOut };
 }
 
+/** Points per block: the block's derivative accumulators (2 x cols x BLOCK doubles) stay in the L1 cache. */
+const BLOCK = 128;
+
 /** Per-run scratch (allocated once per call, never per point). */
 interface Scratch {
   readonly kout: Float64Array;
@@ -282,13 +285,30 @@ interface Scratch {
   readonly oi: Float64Array;
   readonly others: Float64Array;
   readonly sv: Float64Array;
-  /** Per-row accumulators of dF (real, imaginary), one entry per parameter. */
+  /** Per block point: u, v, u^2, 2uv, v^2. */
+  readonly bu: Float64Array;
+  readonly bv: Float64Array;
+  readonly bu2: Float64Array;
+  readonly buv: Float64Array;
+  readonly bv2: Float64Array;
+  /** Per block point, for the term at hand: P, flux dP/dr2, cos and -sin of the phase, the term's value. */
+  readonly bp: Float64Array;
+  readonly bg: Float64Array;
+  readonly bc: Float64Array;
+  readonly bs: Float64Array;
+  readonly tre: Float64Array;
+  readonly tim: Float64Array;
+  /** Per block point: F (unnormalised). */
+  readonly fre: Float64Array;
+  readonly fim: Float64Array;
+  /** dF per parameter and block point, parameter-major: [j * BLOCK + point]. */
   readonly dfr: Float64Array;
   readonly dfi: Float64Array;
 }
 
 function scratchFor(plan: JPlan): Scratch {
   const nf = Math.max(1, plan.maxFactors);
+  const b = () => new Float64Array(BLOCK);
   return {
     kout: new Float64Array(plan.maxOut),
     pv: new Float64Array(nf),
@@ -299,8 +319,21 @@ function scratchFor(plan: JPlan): Scratch {
     oi: new Float64Array(nf),
     others: new Float64Array(nf),
     sv: new Float64Array(Math.max(1, plan.maxSlopes)),
-    dfr: new Float64Array(plan.cols),
-    dfi: new Float64Array(plan.cols),
+    bu: b(),
+    bv: b(),
+    bu2: b(),
+    buv: b(),
+    bv2: b(),
+    bp: b(),
+    bg: b(),
+    bc: b(),
+    bs: b(),
+    tre: b(),
+    tim: b(),
+    fre: b(),
+    fim: b(),
+    dfr: new Float64Array(Math.max(1, plan.cols) * BLOCK),
+    dfi: new Float64Array(Math.max(1, plan.cols) * BLOCK),
   };
 }
 
@@ -315,6 +348,12 @@ function scratchFor(plan: JPlan): Scratch {
  * @param dre - out: d Re V / d p, row-major n x cols
  * @param dim - out: d Im V / d p
  * @param n - number of points
+ *
+ * Notes: points go in blocks of {@link BLOCK}. Within a block, a term with at most one factor and no kernel
+ * coefficients (a point, disk, Gaussian, ring, exponential, ...: the common case) runs one loop per kernel
+ * kind over the block and then, per free parameter that moves it, one loop with that parameter's chain-rule
+ * coefficients held in locals; other terms go point by point. dF is kept parameter-major per block and
+ * normalised into the row-major outputs at the end of the block.
  */
 export function runJacobian(
   plan: JPlan,
@@ -328,167 +367,286 @@ export function runJacobian(
 ): void {
   const cols = plan.cols;
   const s = scratchFor(plan);
-  const { kout, pv, gv, others, sv, dfr, dfi } = s;
+  const { bu, bv, bu2, buv, bv2, fre, fim, dfr, dfi } = s;
   const invTot = 1 / plan.total;
   const dtotal = plan.dtotal;
   const terms = plan.terms;
   const nt = terms.length;
-  for (let i = 0; i < n; i++) {
-    const uu = u[i]!;
-    const vv = v[i]!;
-    const u2 = uu * uu;
-    const uv2 = 2 * uu * vv;
-    const v2 = vv * vv;
-    const row = i * cols;
-    let fre = 0;
-    let fim = 0;
+  for (let i0 = 0; i0 < n; i0 += BLOCK) {
+    const m = Math.min(BLOCK, n - i0);
+    for (let b = 0; b < m; b++) {
+      const uu = u[i0 + b]!;
+      const vv = v[i0 + b]!;
+      bu[b] = uu;
+      bv[b] = vv;
+      bu2[b] = uu * uu;
+      buv[b] = 2 * uu * vv;
+      bv2[b] = vv * vv;
+      fre[b] = 0;
+      fim[b] = 0;
+    }
+    dfr.fill(0, 0, cols * BLOCK);
+    dfi.fill(0, 0, cols * BLOCK);
     for (let k = 0; k < nt; k++) {
       const t = terms[k]!;
-      if (t.complex) {
-        complexTerm(t, uu, vv, s);
-        fre += kout[0]!;
-        fim += kout[1]!;
-        continue;
-      }
-      const nf = t.nf;
-      const m = t.m;
-      let prod = 1;
-      for (let f = 0; f < nf; f++) {
-        const r2raw = m[3 * f]! * u2 + m[3 * f + 1]! * uv2 + m[3 * f + 2]! * v2;
-        const r2 = r2raw > 0 ? r2raw : 0;
-        let p: number;
-        let g: number;
-        switch (t.codes[f]) {
-          case CODE_DISK: {
-            const x = Math.PI * Math.sqrt(r2);
-            if (x < 2) {
-              p = disk(x);
-              g = -PI2 * j2x2(x);
-            } else {
-              // one J0 and one J1: P = 2 J1/x and J2/x^2 = (P - J0)/x^2 (A&S 9.1.27), little cancellation for x >= 2
-              p = (2 * j1(x)) / x;
-              g = (-PI2 * (p - j0(x))) / (x * x);
-            }
-            break;
-          }
-          case CODE_GAUSS:
-            p = Math.exp(-GK * r2);
-            g = -GK * p;
-            break;
-          case CODE_RING: {
-            const x = Math.PI * Math.sqrt(r2);
-            p = j0(x);
-            g = -(PI2 / 4) * disk(x);
-            break;
-          }
-          default: {
-            const pk = t.p[f]!;
-            t.radialKernels[f]!(r2, pk, kout, t.data[f]);
-            p = kout[0]!;
-            g = kout[1]!;
-            const off = t.slopeOff[f]!;
-            for (let q = 0; q < pk.length; q++) sv[off + q] = kout[2 + q]!;
-          }
-        }
-        pv[f] = p;
-        gv[f] = g;
-        prod *= p;
-      }
-      let c = 1;
-      let sn = 0;
-      if (t.shifted) {
-        sinCos(uu * t.e0 + vv * t.n0);
-        c = SC[1]!;
-        sn = -SC[0]!;
-      }
-      const flux = t.flux;
-      const tre = flux * prod * c;
-      const tim = flux * prod * sn;
-      fre += tre;
-      fim += tim;
-      const idx = t.idx;
-      const na = idx.length;
-      if (na === 0) continue;
-      // flux * (product of the other factors), per factor
-      if (nf === 1) others[0] = flux;
-      else {
-        for (let f = 0; f < nf; f++) {
-          let o = flux;
-          for (let h = 0; h < nf; h++) if (h !== f) o *= pv[h]!;
-          others[f] = o;
-        }
-      }
-      const coef = t.coef;
-      const stride = t.stride;
-      if (nf <= 1 && !t.coefficients) {
-        // the common cases: a point, or one factor without coefficients (disk, Gaussian, ring, ...) whose
-        // geometry entries sit at 3..5
-        const g0 = nf === 1 ? others[0]! * gv[0]! : 0;
-        const moves = t.shiftMoves;
-        for (let q = 0; q < na; q++) {
-          const j = idx[q]!;
-          const o = q * stride;
-          let w = coef[o]! * prod;
-          if (nf === 1) w += g0 * (coef[o + 3]! * u2 + coef[o + 4]! * uv2 + coef[o + 5]! * v2);
-          if (moves) {
-            const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
-            dfr[j] = dfr[j]! + w * c + ws * tim;
-            dfi[j] = dfi[j]! + w * sn - ws * tre;
-          } else {
-            dfr[j] = dfr[j]! + w * c;
-            dfi[j] = dfi[j]! + w * sn;
-          }
-        }
-        continue;
-      }
-      for (let q = 0; q < na; q++) {
-        const j = idx[q]!;
-        const o = q * stride;
-        // real-amplitude part: d flux * prod + sum over factors of flux * others * (G dr2 + dP/dp dp)
-        let w = coef[o]! * prod;
-        for (let f = 0; f < nf; f++) {
-          const go = o + t.geoOff[f]!;
-          const dr2 = coef[go]! * u2 + coef[go + 1]! * uv2 + coef[go + 2]! * v2;
-          let d = gv[f]! * dr2;
-          const np = t.p[f]!.length;
-          if (np > 0) {
-            const co = o + t.coefOff[f]!;
-            const so = t.slopeOff[f]!;
-            for (let r = 0; r < np; r++) d += sv[so + r]! * coef[co + r]!;
-          }
-          w += others[f]! * d;
-        }
-        // phase part: d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
-        const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
-        dfr[j] = dfr[j]! + w * c + ws * tim;
-        dfi[j] = dfi[j]! + w * sn - ws * tre;
-      }
+      if (t.complex) for (let b = 0; b < m; b++) complexTerm(t, b, s);
+      else if (t.nf <= 1 && !t.coefficients) simpleTerm(t, m, s);
+      else for (let b = 0; b < m; b++) realTerm(t, b, s);
     }
     // normalise: V = F / T, dV = (dF - V dT) / T
-    const vre = fre * invTot;
-    const vim = fim * invTot;
-    re[i] = vre;
-    im[i] = vim;
-    for (let j = 0; j < cols; j++) {
-      const dt = dtotal[j]!;
-      dre[row + j] = (dfr[j]! - vre * dt) * invTot;
-      dim[row + j] = (dfi[j]! - vim * dt) * invTot;
-      dfr[j] = 0;
-      dfi[j] = 0;
+    for (let b = 0; b < m; b++) {
+      const vre = fre[b]! * invTot;
+      const vim = fim[b]! * invTot;
+      const i = i0 + b;
+      re[i] = vre;
+      im[i] = vim;
+      const row = i * cols;
+      for (let j = 0; j < cols; j++) {
+        const dt = dtotal[j]!;
+        dre[row + j] = (dfr[j * BLOCK + b]! - vre * dt) * invTot;
+        dim[row + j] = (dfi[j * BLOCK + b]! - vim * dt) * invTot;
+      }
     }
   }
 }
 
-/**
- * One term with a complex factor at one point: adds its derivatives into s.dfr, s.dfi and leaves the term's
- * value in s.kout[0], s.kout[1].
- */
-function complexTerm(t: JTerm, uu: number, vv: number, s: Scratch): void {
-  const { kout, pr, pi, or, oi, sv, dfr, dfi } = s;
+/** A term with at most one factor and no kernel coefficients, over the m points of a block. */
+function simpleTerm(t: JTerm, m: number, s: Scratch): void {
+  const { bu, bv, bu2, buv, bv2, bp, bg, bc, bs, tre, tim, fre, fim, dfr, dfi, kout } = s;
+  const flux = t.flux;
+  if (t.nf === 0) {
+    for (let b = 0; b < m; b++) {
+      bp[b] = 1;
+      bg[b] = 0;
+    }
+  } else {
+    const m11 = t.m[0]!;
+    const m12 = t.m[1]!;
+    const m22 = t.m[2]!;
+    switch (t.codes[0]) {
+      case CODE_DISK:
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
+          if (x < 2) {
+            bp[b] = disk(x);
+            bg[b] = -PI2 * flux * j2x2(x);
+          } else {
+            // one J0 and one J1: P = 2 J1/x and J2/x^2 = (P - J0)/x^2 (A&S 9.1.27), little cancellation for
+            // x >= 2. Below 12 both come from the same unit-interval polynomials besselJ0 and besselJ1 use
+            // (piece k - 2 at t = x - k - 1/2), so J0 and J1 are theirs to the bit, for one piece lookup.
+            let jx0: number;
+            let jx1: number;
+            if (x < PIECES_END) {
+              const k = Math.floor(x);
+              const tt = x - k - 0.5;
+              jx0 = j0p(k - 2, tt);
+              jx1 = j1p(k - 2, tt);
+            } else {
+              jx0 = j0(x);
+              jx1 = j1(x);
+            }
+            const p = (2 * jx1) / x;
+            bp[b] = p;
+            bg[b] = (-PI2 * flux * (p - jx0)) / (x * x);
+          }
+        }
+        break;
+      case CODE_GAUSS:
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const p = Math.exp(-GK * (r2 > 0 ? r2 : 0));
+          bp[b] = p;
+          bg[b] = -GK * flux * p;
+        }
+        break;
+      case CODE_RING:
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
+          bp[b] = j0(x);
+          bg[b] = -(PI2 / 4) * flux * disk(x);
+        }
+        break;
+      default: {
+        const kernel = t.radialKernels[0]!;
+        const pk = t.p[0]!;
+        const data = t.data[0];
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          kernel(r2 > 0 ? r2 : 0, pk, kout, data);
+          bp[b] = kout[0]!;
+          bg[b] = flux * kout[1]!;
+        }
+      }
+    }
+  }
+  const e0 = t.e0;
+  const n0 = t.n0;
+  if (t.shifted) {
+    for (let b = 0; b < m; b++) {
+      sinCos(bu[b]! * e0 + bv[b]! * n0);
+      const c = SC[1]!;
+      const sn = -SC[0]!;
+      const a = flux * bp[b]!;
+      bc[b] = c;
+      bs[b] = sn;
+      tre[b] = a * c;
+      tim[b] = a * sn;
+      fre[b] = fre[b]! + a * c;
+      fim[b] = fim[b]! + a * sn;
+    }
+  } else {
+    for (let b = 0; b < m; b++) {
+      const a = flux * bp[b]!;
+      bc[b] = 1;
+      bs[b] = 0;
+      tre[b] = a;
+      tim[b] = 0;
+      fre[b] = fre[b]! + a;
+    }
+  }
+  const idx = t.idx;
+  const coef = t.coef;
+  const stride = t.stride;
+  const geometry = t.nf === 1;
+  for (let q = 0; q < idx.length; q++) {
+    const o = q * stride;
+    const base = idx[q]! * BLOCK;
+    const df = coef[o]!;
+    const de = TWO_PI * coef[o + 1]!;
+    const dn = TWO_PI * coef[o + 2]!;
+    const d11 = geometry ? coef[o + 3]! : 0;
+    const d12 = geometry ? coef[o + 4]! : 0;
+    const d22 = geometry ? coef[o + 5]! : 0;
+    if (de === 0 && dn === 0 && d11 === 0 && d12 === 0 && d22 === 0) {
+      // a flux (weight) parameter: d flux * P, times the phase
+      for (let b = 0; b < m; b++) {
+        const w = df * bp[b]!;
+        dfr[base + b] = dfr[base + b]! + w * bc[b]!;
+        dfi[base + b] = dfi[base + b]! + w * bs[b]!;
+      }
+    } else if (de === 0 && dn === 0) {
+      for (let b = 0; b < m; b++) {
+        // d flux * P + flux dP/dr2 * dr2, times the phase
+        const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
+        dfr[base + b] = dfr[base + b]! + w * bc[b]!;
+        dfi[base + b] = dfi[base + b]! + w * bs[b]!;
+      }
+    } else {
+      for (let b = 0; b < m; b++) {
+        const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
+        // d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
+        const ws = bu[b]! * de + bv[b]! * dn;
+        dfr[base + b] = dfr[base + b]! + w * bc[b]! + ws * tim[b]!;
+        dfi[base + b] = dfi[base + b]! + w * bs[b]! - ws * tre[b]!;
+      }
+    }
+  }
+}
+
+/** A real term of any number of factors, with kernel coefficients, at block point b. */
+function realTerm(t: JTerm, b: number, s: Scratch): void {
+  const { kout, pv, gv, others, sv, fre, fim, dfr, dfi } = s;
+  const uu = s.bu[b]!;
+  const vv = s.bv[b]!;
+  const u2 = s.bu2[b]!;
+  const uv2 = s.buv[b]!;
+  const v2 = s.bv2[b]!;
   const nf = t.nf;
-  const u2 = uu * uu;
-  const uv2 = 2 * uu * vv;
-  const v2 = vv * vv;
+  const m = t.m;
+  let prod = 1;
+  for (let f = 0; f < nf; f++) {
+    const r2raw = m[3 * f]! * u2 + m[3 * f + 1]! * uv2 + m[3 * f + 2]! * v2;
+    const r2 = r2raw > 0 ? r2raw : 0;
+    let p: number;
+    let g: number;
+    switch (t.codes[f]) {
+      case CODE_DISK: {
+        const x = Math.PI * Math.sqrt(r2);
+        p = disk(x);
+        g = -PI2 * j2x2(x);
+        break;
+      }
+      case CODE_GAUSS:
+        p = Math.exp(-GK * r2);
+        g = -GK * p;
+        break;
+      case CODE_RING: {
+        const x = Math.PI * Math.sqrt(r2);
+        p = j0(x);
+        g = -(PI2 / 4) * disk(x);
+        break;
+      }
+      default: {
+        const pk = t.p[f]!;
+        t.radialKernels[f]!(r2, pk, kout, t.data[f]);
+        p = kout[0]!;
+        g = kout[1]!;
+        const off = t.slopeOff[f]!;
+        for (let q = 0; q < pk.length; q++) sv[off + q] = kout[2 + q]!;
+      }
+    }
+    pv[f] = p;
+    gv[f] = g;
+    prod *= p;
+  }
+  let c = 1;
+  let sn = 0;
+  if (t.shifted) {
+    sinCos(uu * t.e0 + vv * t.n0);
+    c = SC[1]!;
+    sn = -SC[0]!;
+  }
+  const flux = t.flux;
+  const tre = flux * prod * c;
+  const tim = flux * prod * sn;
+  fre[b] = fre[b]! + tre;
+  fim[b] = fim[b]! + tim;
+  const idx = t.idx;
+  const na = idx.length;
+  if (na === 0) return;
+  // flux * (product of the other factors), per factor
+  for (let f = 0; f < nf; f++) {
+    let o = flux;
+    for (let h = 0; h < nf; h++) if (h !== f) o *= pv[h]!;
+    others[f] = o;
+  }
+  const coef = t.coef;
+  const stride = t.stride;
+  for (let q = 0; q < na; q++) {
+    const at = idx[q]! * BLOCK + b;
+    const o = q * stride;
+    // real-amplitude part: d flux * prod + sum over factors of flux * others * (G dr2 + dP/dp dp)
+    let w = coef[o]! * prod;
+    for (let f = 0; f < nf; f++) {
+      const go = o + t.geoOff[f]!;
+      const dr2 = coef[go]! * u2 + coef[go + 1]! * uv2 + coef[go + 2]! * v2;
+      let d = gv[f]! * dr2;
+      const np = t.p[f]!.length;
+      if (np > 0) {
+        const co = o + t.coefOff[f]!;
+        const so = t.slopeOff[f]!;
+        for (let r = 0; r < np; r++) d += sv[so + r]! * coef[co + r]!;
+      }
+      w += others[f]! * d;
+    }
+    // phase part: d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
+    const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
+    dfr[at] = dfr[at]! + w * c + ws * tim;
+    dfi[at] = dfi[at]! + w * sn - ws * tre;
+  }
+}
+
+/** A term with a complex (non-radial) factor at block point b. */
+function complexTerm(t: JTerm, b: number, s: Scratch): void {
+  const { kout, pr, pi, or, oi, sv, fre, fim, dfr, dfi } = s;
+  const uu = s.bu[b]!;
+  const vv = s.bv[b]!;
+  const u2 = s.bu2[b]!;
+  const uv2 = s.buv[b]!;
+  const v2 = s.bv2[b]!;
+  const nf = t.nf;
   let zr = 1;
   let zi = 0;
   for (let f = 0; f < nf; f++) {
@@ -498,6 +656,7 @@ function complexTerm(t: JTerm, uu: number, vv: number, s: Scratch): void {
     let xi = 0;
     if (t.codes[f] === CODE_COMPLEX) {
       const a = t.a;
+      // w = A^T q
       const w1 = a[4 * f]! * uu + a[4 * f + 2]! * vv;
       const w2 = a[4 * f + 1]! * uu + a[4 * f + 3]! * vv;
       t.complexKernels[f]!(w1, w2, pk, kout, t.data[f]);
@@ -530,60 +689,59 @@ function complexTerm(t: JTerm, uu: number, vv: number, s: Scratch): void {
   // term value flux * z * (c + i sn)
   const tre = flux * (zr * c - zi * sn);
   const tim = flux * (zr * sn + zi * c);
+  fre[b] = fre[b]! + tre;
+  fim[b] = fim[b]! + tim;
   const idx = t.idx;
   const na = idx.length;
-  if (na > 0) {
-    for (let f = 0; f < nf; f++) {
-      let yr = flux;
-      let yi = 0;
-      for (let h = 0; h < nf; h++) {
-        if (h === f) continue;
-        const q = yr * pr[h]! - yi * pi[h]!;
-        yi = yr * pi[h]! + yi * pr[h]!;
-        yr = q;
-      }
-      or[f] = yr;
-      oi[f] = yi;
+  if (na === 0) return;
+  for (let f = 0; f < nf; f++) {
+    let yr = flux;
+    let yi = 0;
+    for (let h = 0; h < nf; h++) {
+      if (h === f) continue;
+      const q = yr * pr[h]! - yi * pi[h]!;
+      yi = yr * pi[h]! + yi * pr[h]!;
+      yr = q;
     }
-    const coef = t.coef;
-    const stride = t.stride;
-    for (let q = 0; q < na; q++) {
-      const j = idx[q]!;
-      const o = q * stride;
-      let xr = coef[o]! * zr;
-      let xi = coef[o]! * zi;
-      for (let f = 0; f < nf; f++) {
-        const go = o + t.geoOff[f]!;
-        const co = o + t.coefOff[f]!;
-        const so = t.slopeOff[f]!;
-        const np = t.p[f]!.length;
-        let dr: number;
-        let di = 0;
-        if (t.codes[f] === CODE_COMPLEX) {
-          // dw = dA^T q
-          const dw1 = coef[go]! * uu + coef[go + 2]! * vv;
-          const dw2 = coef[go + 1]! * uu + coef[go + 3]! * vv;
-          dr = sv[so]! * dw1 + sv[so + 2]! * dw2;
-          di = sv[so + 1]! * dw1 + sv[so + 3]! * dw2;
-          for (let r = 0; r < np; r++) {
-            const dc = coef[co + r]!;
-            dr += sv[so + 4 + 2 * r]! * dc;
-            di += sv[so + 5 + 2 * r]! * dc;
-          }
-        } else {
-          const dr2 = coef[go]! * u2 + coef[go + 1]! * uv2 + coef[go + 2]! * v2;
-          dr = sv[so]! * dr2;
-          for (let r = 0; r < np; r++) dr += sv[so + 1 + r]! * coef[co + r]!;
-        }
-        xr += or[f]! * dr - oi[f]! * di;
-        xi += or[f]! * di + oi[f]! * dr;
-      }
-      // X (c + i sn) + term * (-i ws)
-      const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
-      dfr[j] = dfr[j]! + xr * c - xi * sn + ws * tim;
-      dfi[j] = dfi[j]! + xr * sn + xi * c - ws * tre;
-    }
+    or[f] = yr;
+    oi[f] = yi;
   }
-  kout[0] = tre;
-  kout[1] = tim;
+  const coef = t.coef;
+  const stride = t.stride;
+  for (let q = 0; q < na; q++) {
+    const at = idx[q]! * BLOCK + b;
+    const o = q * stride;
+    let xr = coef[o]! * zr;
+    let xi = coef[o]! * zi;
+    for (let f = 0; f < nf; f++) {
+      const go = o + t.geoOff[f]!;
+      const co = o + t.coefOff[f]!;
+      const so = t.slopeOff[f]!;
+      const np = t.p[f]!.length;
+      let dr: number;
+      let di = 0;
+      if (t.codes[f] === CODE_COMPLEX) {
+        // dw = dA^T q
+        const dw1 = coef[go]! * uu + coef[go + 2]! * vv;
+        const dw2 = coef[go + 1]! * uu + coef[go + 3]! * vv;
+        dr = sv[so]! * dw1 + sv[so + 2]! * dw2;
+        di = sv[so + 1]! * dw1 + sv[so + 3]! * dw2;
+        for (let r = 0; r < np; r++) {
+          const dc = coef[co + r]!;
+          dr += sv[so + 4 + 2 * r]! * dc;
+          di += sv[so + 5 + 2 * r]! * dc;
+        }
+      } else {
+        const dr2 = coef[go]! * u2 + coef[go + 1]! * uv2 + coef[go + 2]! * v2;
+        dr = sv[so]! * dr2;
+        for (let r = 0; r < np; r++) dr += sv[so + 1 + r]! * coef[co + r]!;
+      }
+      xr += or[f]! * dr - oi[f]! * di;
+      xi += or[f]! * di + oi[f]! * dr;
+    }
+    // X (c + i sn) + term * (-i ws)
+    const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
+    dfr[at] = dfr[at]! + xr * c - xi * sn + ws * tim;
+    dfi[at] = dfi[at]! + xr * sn + xi * c - ws * tre;
+  }
 }

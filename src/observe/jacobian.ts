@@ -109,7 +109,9 @@ export type JacobianPoints =
       readonly v2: ArrayLike<number>;
     } & WavelengthColumns);
 
-type Values = ArrayLike<number> | Readonly<Record<string, number>>;
+/** Free-parameter values: an array in the order of `model.parameters()`, or a record by name. */
+export type ParameterValues = ArrayLike<number> | Readonly<Record<string, number>>;
+type Values = ParameterValues;
 
 function toColumn(x: ArrayLike<number>, fn: string, name: string): Float64Array {
   if (x === null || typeof x !== 'object' || typeof x.length !== 'number') {

@@ -38,9 +38,9 @@ const PROFILE_MAX_FREQUENCY = 0.5;
 /** Every component kind of the library with flux 1 and random shape values inside their domains. */
 export const arbComponent: fc.Arbitrary<Model> = fc.oneof(
   arbPrimitive,
-  fc.tuple(size, fc.double({ min: -2, max: 1, noNaN: true })).map(([d, a]) =>
-    limbDarkenedDisk({ diameter: d, law: linearLaw(a) }),
-  ),
+  fc
+    .tuple(size, fc.double({ min: -2, max: 1, noNaN: true }))
+    .map(([d, a]) => limbDarkenedDisk({ diameter: d, law: linearLaw(a) })),
   // a + b <= 1 with b >= 0 keeps the quadratic law non-negative on [0, 1]
   fc
     .tuple(size, unit, unit)
@@ -69,7 +69,11 @@ export const arbComponent: fc.Arbitrary<Model> = fc.oneof(
       });
     }),
   fc
-    .tuple(fc.integer({ min: 1, max: 4 }), fc.integer({ min: 1, max: 4 }), fc.double({ min: 0.05, max: 2, noNaN: true }))
+    .tuple(
+      fc.integer({ min: 1, max: 4 }),
+      fc.integer({ min: 1, max: 4 }),
+      fc.double({ min: 0.05, max: 2, noNaN: true }),
+    )
     .chain(([nx, ny, scale]) =>
       fc
         .array(unit, { minLength: nx * ny, maxLength: nx * ny })
@@ -169,7 +173,7 @@ const GARBAGE_CARDS = [
   'lowercase= 1',
   "STRING  = 'no closing quote",
   'NUMBER  = 1.2.3',
-  'CONTINUE  \'dangling&\'',
+  "CONTINUE  'dangling&'",
   'COMMENT just text',
   "TDIM1   = '(1000000000000,1000000000000)'",
   "TDIM2   = '(0)'",
@@ -214,11 +218,14 @@ export function damage(good: Uint8Array, damages: readonly Damage[]): Uint8Array
         // rewrite the first card with this keyword, or a random card when the keyword is absent
         const at = cards.find((p) => p + CARD <= bytes.length && keywordAt(bytes, p) === d.keyword);
         const place = at ?? cards[d.card % cards.length]!;
-        if (place + CARD <= bytes.length) writeCard(bytes, place, `${d.keyword.padEnd(8)}= ${d.value.padStart(20)}`);
+        if (place + CARD <= bytes.length)
+          writeCard(bytes, place, `${d.keyword.padEnd(8)}= ${d.value.padStart(20)}`);
         break;
       }
       case 'tform': {
-        const tforms = cards.filter((p) => p + CARD <= bytes.length && keywordAt(bytes, p).startsWith('TFORM'));
+        const tforms = cards.filter(
+          (p) => p + CARD <= bytes.length && keywordAt(bytes, p).startsWith('TFORM'),
+        );
         if (tforms.length > 0) {
           const at = tforms[d.card % tforms.length]!;
           writeCard(bytes, at, `${keywordAt(bytes, at).padEnd(8)}= '${d.value.padEnd(8)}'`);
@@ -252,7 +259,9 @@ export function arbDamages(length: number): fc.Arbitrary<Damage[]> {
     fc
       .tuple(card, fc.constantFrom(...SIZE_KEYWORDS), fc.constantFrom(...HOSTILE_NUMBERS))
       .map(([c, keyword, value]) => ({ kind: 'size', card: c, keyword, value }) as const),
-    fc.tuple(card, fc.constantFrom(...HOSTILE_TFORMS)).map(([c, value]) => ({ kind: 'tform', card: c, value }) as const),
+    fc
+      .tuple(card, fc.constantFrom(...HOSTILE_TFORMS))
+      .map(([c, value]) => ({ kind: 'tform', card: c, value }) as const),
     fc
       .tuple(card, fc.oneof(fc.constantFrom(...GARBAGE_CARDS), fc.string({ maxLength: 80 })))
       .map(([c, text]) => ({ kind: 'garbage', card: c, text }) as const),

@@ -1,0 +1,580 @@
+/**
+ * The uvsky benchmark suite (`npm run bench`): every workload of issue 7 timed side by side in one run with its
+ * peers (a NumPy/SciPy script, a naive per-point complex.js loop, and the floors: a loop that computes only the
+ * phase ramps with Math.sin / Math.cos, and the same with sinCosTurns), reported as ratios. Medians of repeated
+ * runs; a report goes to benchmarks/results/<date>.json and .md.
+ *
+ * Run: node --import tsx benchmarks/run.ts [--quick]
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import bessel from 'bessel';
+import { Complex } from 'complex.js';
+import { fit } from '../src/fit/index.js';
+import {
+  chromaticVis2,
+  disk,
+  ellipse,
+  gaussian,
+  gaussianRing,
+  limbDarkenedDisk,
+  linearLaw,
+  type Model,
+  param,
+  point,
+  RAD_PER_MAS,
+  ring,
+  sum,
+  visibilityJacobian,
+} from '../src/index.js';
+import { SIN_COS, sinCosTurns } from '../src/kernels/sincos.js';
+import { closeParallelPool, parallelVisibilities, sharedFloat64Array } from '../src/observe/parallel.js';
+import { readOifits } from '../src/oifits/index.js';
+
+const QUICK = process.argv.includes('--quick');
+const N = QUICK ? 200_000 : 1_000_000;
+const NT = QUICK ? 60_000 : 300_000;
+const NC = QUICK ? 40_000 : 200_000;
+const REPEATS = QUICK ? 3 : 7;
+const PYTHON = '/usr/bin/python3';
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)]!;
+}
+
+/** Median wall time (ms) of f over REPEATS runs after one warm-up, and a checksum of its results. */
+function time(f: () => number, repeats = REPEATS): { ms: number; check: number } {
+  let check = f();
+  const ts: number[] = [];
+  for (let r = 0; r < repeats; r++) {
+    const t0 = process.hrtime.bigint();
+    check += f();
+    ts.push(Number(process.hrtime.bigint() - t0) / 1e6);
+  }
+  if (!Number.isFinite(check)) throw new Error('non-finite benchmark result');
+  return { ms: median(ts), check };
+}
+
+async function timeAsync(f: () => Promise<number>, repeats = REPEATS): Promise<{ ms: number }> {
+  await f();
+  const ts: number[] = [];
+  for (let r = 0; r < repeats; r++) {
+    const t0 = process.hrtime.bigint();
+    await f();
+    ts.push(Number(process.hrtime.bigint() - t0) / 1e6);
+  }
+  return { ms: median(ts) };
+}
+
+function columns(n: number, seed: number): { u: Float64Array; v: Float64Array } {
+  const u = new Float64Array(n);
+  const v = new Float64Array(n);
+  let s = seed;
+  for (let i = 0; i < n; i++) {
+    s = (s * 1103515245 + 12345) % 2147483648;
+    u[i] = (s / 2147483648 - 0.5) * 6e8;
+    s = (s * 1103515245 + 12345) % 2147483648;
+    v[i] = (s / 2147483648 - 0.5) * 6e8;
+  }
+  return { u, v };
+}
+
+// ---------- machine ----------
+
+function cpuModel(): string {
+  try {
+    const m = /model name\s*:\s*(.*)/.exec(readFileSync('/proc/cpuinfo', 'utf8'));
+    if (m) return m[1]!.trim();
+  } catch {
+    // not Linux
+  }
+  return cpus()[0]?.model ?? 'unknown';
+}
+
+function pythonVersions(): { numpy: string; scipy: string } | null {
+  try {
+    const out = execFileSync(
+      PYTHON,
+      ['-c', 'import numpy, scipy; print(numpy.__version__, scipy.__version__)'],
+      {
+        encoding: 'utf8',
+      },
+    ).trim();
+    const [numpy, scipy] = out.split(' ');
+    return { numpy: numpy!, scipy: scipy! };
+  } catch {
+    return null;
+  }
+}
+
+const machine = {
+  cpu: cpuModel(),
+  cores: cpus().length,
+  node: process.version,
+  python: pythonVersions(),
+  loadAverageAtStart: loadavg().map((x) => Number(x.toFixed(2))),
+  date: new Date().toISOString(),
+  points: N,
+  repeats: REPEATS,
+};
+console.log(
+  `uvsky benchmark suite: ${machine.cpu} (${machine.cores} cores), node ${machine.node}, ` +
+    `numpy ${machine.python?.numpy ?? '-'}, scipy ${machine.python?.scipy ?? '-'}, ` +
+    `load average at start ${machine.loadAverageAtStart.join(' ')}; median of ${REPEATS}`,
+);
+
+// ---------- models ----------
+
+const { u, v } = columns(N, 12345);
+const out = { re: new Float64Array(N), im: new Float64Array(N) };
+const SHIFT_E = 2.5;
+const SHIFT_N = -1;
+
+const modelB = sum(
+  limbDarkenedDisk({ diameter: 1.8, law: linearLaw(0.4) }),
+  gaussianRing({ diameter: 6, fwhm: 1 }).incline(50, 30).weight(0.3),
+  point().weight(0.05).shift(4.5, -2),
+);
+
+const primitives: [string, Model][] = [
+  ['point', point()],
+  ['disk', disk({ diameter: 1.8 })],
+  ['gaussian', gaussian({ fwhm: 1.8 })],
+  ['ring', ring({ diameter: 1.8 })],
+  ['ellipse', ellipse({ major: 2, minor: 1, pa: 30 })],
+  ['linear limb-darkened disk', limbDarkenedDisk({ diameter: 1.8, law: linearLaw(0.4) })],
+  ['gaussian ring (inclined)', gaussianRing({ diameter: 6, fwhm: 1 }).incline(50, 30)],
+];
+
+function ours(m: Model, uu = u, vv = v, o = out): () => number {
+  const n = uu.length;
+  return () => {
+    m.visibilities(uu, vv, o);
+    return o.re[n >> 1]! + o.im[n >> 2]!;
+  };
+}
+
+// ---------- floors ----------
+
+/** One Math.sin and one Math.cos per point per term: the cost of the phase ramps alone. */
+function floorMath(terms: number, uu = u, vv = v): () => number {
+  const n = uu.length;
+  const re = out.re;
+  const im = out.im;
+  return () => {
+    const e0 = SHIFT_E * RAD_PER_MAS;
+    const n0 = SHIFT_N * RAD_PER_MAS;
+    for (let i = 0; i < n; i++) {
+      let a = 0;
+      let b = 0;
+      for (let k = 0; k < terms; k++) {
+        const p = 2 * Math.PI * (uu[i]! * (e0 + k * 1e-10) + vv[i]! * n0);
+        a += Math.cos(p);
+        b -= Math.sin(p);
+      }
+      re[i] = a;
+      im[i] = b;
+    }
+    return re[n >> 1]! + im[n >> 2]!;
+  };
+}
+
+/** The same ramps with the library's sinCosTurns (one call per point per term). */
+function floorTurns(terms: number, uu = u, vv = v): () => number {
+  const n = uu.length;
+  const re = out.re;
+  const im = out.im;
+  const sc = SIN_COS;
+  const f = sinCosTurns;
+  return () => {
+    const e0 = SHIFT_E * RAD_PER_MAS;
+    const n0 = SHIFT_N * RAD_PER_MAS;
+    for (let i = 0; i < n; i++) {
+      let a = 0;
+      let b = 0;
+      for (let k = 0; k < terms; k++) {
+        f(uu[i]! * (e0 + k * 1e-10) + vv[i]! * n0);
+        a += sc[1]!;
+        b -= sc[0]!;
+      }
+      re[i] = a;
+      im[i] = b;
+    }
+    return re[n >> 1]! + im[n >> 2]!;
+  };
+}
+
+// ---------- naive per-point complex.js ----------
+
+function naive(amp: (q: number) => number): () => number {
+  const e0 = SHIFT_E * RAD_PER_MAS;
+  const n0 = SHIFT_N * RAD_PER_MAS;
+  return () => {
+    let acc = 0;
+    for (let i = 0; i < N; i++) {
+      const q = Math.hypot(u[i]!, v[i]!);
+      const a = new Complex(amp(Math.PI * q * RAD_PER_MAS), 0);
+      const ph = new Complex(0, -2 * Math.PI * (u[i]! * e0 + v[i]! * n0)).exp();
+      acc += a.mul(ph).re;
+    }
+    return acc;
+  };
+}
+const NAIVE: Record<string, (x: number) => number> = {
+  point: () => 1,
+  disk: (x) => (x === 0 ? 1 : (2 * bessel.besselj(x * 1.8, 1)) / (x * 1.8)),
+  gaussian: (x) => Math.exp(-((x * 1.8) ** 2) / (4 * Math.LN2)),
+  ring: (x) => bessel.besselj(x * 1.8, 0),
+};
+
+// ---------- the NumPy/SciPy peer ----------
+
+interface PeerWorkload {
+  name: string;
+  kind: 'vis' | 't3';
+  plan: unknown;
+  columns: Record<string, Float64Array>;
+}
+
+function planJSON(m: Model): unknown {
+  const p = m.plan();
+  return {
+    totalFlux: p.totalFlux,
+    terms: p.terms.map((t) => ({
+      flux: t.flux,
+      e0: t.e0,
+      n0: t.n0,
+      factors: t.factors.map((f) => ({
+        code: f.code,
+        m11: f.m11,
+        m12: f.m12,
+        m22: f.m22,
+        p: Array.from(f.p),
+      })),
+    })),
+  };
+}
+
+function runPeer(
+  workloads: PeerWorkload[],
+): { seconds: Record<string, number>; outputs: Record<string, Float64Array> } | null {
+  if (machine.python === null) return null;
+  const dir = mkdtempSync(join(tmpdir(), 'uvsky-bench-'));
+  try {
+    for (const w of workloads) {
+      for (const [c, a] of Object.entries(w.columns)) {
+        writeFileSync(join(dir, `${w.name}.${c}.bin`), new Uint8Array(a.buffer, a.byteOffset, a.byteLength));
+      }
+    }
+    const spec = {
+      repeats: REPEATS,
+      workloads: workloads.map((w) => ({
+        name: w.name,
+        kind: w.kind,
+        plan: w.plan,
+        columns: Object.keys(w.columns),
+      })),
+    };
+    writeFileSync(join(dir, 'spec.json'), JSON.stringify(spec));
+    execFileSync(PYTHON, [join(import.meta.dirname, 'peers', 'workloads.py'), dir], { stdio: 'inherit' });
+    const rep = JSON.parse(readFileSync(join(dir, 'peer.json'), 'utf8')) as {
+      results: Record<string, number>;
+    };
+    const outputs: Record<string, Float64Array> = {};
+    for (const w of workloads) {
+      const b = readFileSync(join(dir, `${w.name}.out.bin`));
+      outputs[w.name] = new Float64Array(b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength));
+    }
+    return { seconds: rep.results, outputs };
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function maxDiff(a: Float64Array, b: Float64Array): number {
+  let d = 0;
+  for (let i = 0; i < a.length; i++) d = Math.max(d, Math.abs(a[i]! - b[i]!));
+  return d;
+}
+
+// ---------- workloads ----------
+
+interface Row {
+  workload: string;
+  ours: number; // ms
+  peers: Record<string, number>; // ms
+  note?: string;
+}
+const rows: Row[] = [];
+const CHECK_TOL = 1e-10;
+
+// (c) triangles
+const t1 = columns(NT, 777);
+const t2 = columns(NT, 999);
+const cp = new Float64Array(NT);
+
+const peerWorkloads: PeerWorkload[] = [
+  ...primitives.map(([name, m]) => ({
+    name: `a-${name.replace(/[^a-z]+/g, '-')}`,
+    kind: 'vis' as const,
+    plan: planJSON(m.shift(SHIFT_E, SHIFT_N)),
+    columns: { u, v },
+  })),
+  { name: 'b', kind: 'vis', plan: planJSON(modelB), columns: { u, v } },
+  { name: 'c', kind: 't3', plan: planJSON(modelB), columns: { u1: t1.u, v1: t1.v, u2: t2.u, v2: t2.v } },
+];
+// the peer runs before and after our workloads; the faster of its two medians is kept (the load of a shared
+// machine changes during a run, and this keeps the comparison from favouring us)
+const peer = runPeer(peerWorkloads);
+let peerAfter: ReturnType<typeof runPeer> = null;
+const peerMs = (name: string) =>
+  peer
+    ? Math.min(peer.seconds[name]!, peerAfter?.seconds[name] ?? Number.POSITIVE_INFINITY) * 1e3
+    : Number.NaN;
+const agreement: Record<string, number> = {};
+
+// (a) primitives
+for (const [name, m0] of primitives) {
+  const m = m0.shift(SHIFT_E, SHIFT_N);
+  const key = `a-${name.replace(/[^a-z]+/g, '-')}`;
+  const mine = time(ours(m));
+  if (peer) {
+    const o = peer.outputs[key]!;
+    agreement[key] = Math.max(maxDiff(out.re, o.subarray(0, N)), maxDiff(out.im, o.subarray(N)));
+  }
+  const peers: Record<string, number> = {
+    numpy: peerMs(key),
+    floorMath: time(floorMath(m.terms().length)).ms,
+  };
+  const nf = NAIVE[name];
+  if (nf) peers['naive complex.js'] = time(naive(nf), Math.min(REPEATS, 3)).ms;
+  rows.push({ workload: `(a) ${name}, shifted, ${N} points`, ours: mine.ms, peers });
+}
+
+// (b) the 3-component model
+const bOurs = time(ours(modelB));
+if (peer) {
+  const o = peer.outputs['b']!;
+  agreement['b'] = Math.max(maxDiff(out.re, o.subarray(0, N)), maxDiff(out.im, o.subarray(N)));
+}
+const su = sharedFloat64Array(N);
+const sv = sharedFloat64Array(N);
+su.set(u);
+sv.set(v);
+const sout = { re: sharedFloat64Array(N), im: sharedFloat64Array(N) };
+const bPar = await timeAsync(async () => {
+  await parallelVisibilities(modelB, su, sv, { threads: 2, out: sout });
+  return sout.re[N >> 1]!;
+});
+const bPar1 = await timeAsync(async () => {
+  await parallelVisibilities(modelB, su, sv, { threads: 1, out: sout });
+  return sout.re[N >> 1]!;
+});
+rows.push({
+  workload: `(b) limb-darkened star + inclined Gaussian ring + shifted point, ${N} points`,
+  ours: bOurs.ms,
+  peers: {
+    numpy: peerMs('b'),
+    floorMath: time(floorMath(3)).ms,
+    floorTurns: time(floorTurns(3)).ms,
+    'ours, 2 threads': bPar.ms,
+    'ours, parallel API with 1 thread': bPar1.ms,
+  },
+});
+
+// zero allocation: heap growth over repeated calls with out buffers, at two sizes (growth that does not scale
+// with the number of points is the runtime's own bookkeeping, not the loop's)
+function heapGrowth(n: number, calls: number): number {
+  const uu = u.subarray(0, n);
+  const vv = v.subarray(0, n);
+  const o = { re: out.re.subarray(0, n), im: out.im.subarray(0, n) };
+  for (let k = 0; k < 3; k++) modelB.visibilities(uu, vv, o);
+  globalThis.gc?.();
+  const h0 = process.memoryUsage().heapUsed;
+  for (let k = 0; k < calls; k++) modelB.visibilities(uu, vv, o);
+  return (process.memoryUsage().heapUsed - h0) / calls;
+}
+const heap = { small: N / 10, large: N, smallBytes: heapGrowth(N / 10, 30), largeBytes: heapGrowth(N, 30) };
+const heapPerCall = heap.largeBytes;
+
+// (c) closure phases
+const cOurs = time(() => {
+  modelB.closurePhase(t1.u, t1.v, t2.u, t2.v, cp);
+  return cp[NT >> 1]!;
+});
+if (peer) agreement['c'] = maxDiff(cp, peer.outputs['c']!);
+rows.push({
+  workload: `(c) closure phases of (b), ${NT} triangles`,
+  ours: cOurs.ms,
+  peers: { numpy: peerMs('c') },
+});
+
+// (d) values + Jacobian, 8 free parameters
+const modelD = sum(
+  limbDarkenedDisk({ diameter: param('diameter', 1.8, { min: 0 }), law: linearLaw(param('ld', 0.4)) }),
+  gaussianRing({ diameter: param('ringDiameter', 6, { min: 0 }), fwhm: param('ringWidth', 1, { min: 0 }) })
+    .incline(50, param('pa', 30))
+    .weight(param('ringFlux', 0.3)),
+  point().weight(0.05).shift(param('east', 4.5), param('north', -2)),
+);
+let dNote = 'model (b) with 8 free parameters';
+let dModel = modelD;
+try {
+  visibilityJacobian(modelD, u.subarray(0, 4), v.subarray(0, 4));
+} catch (e) {
+  dNote = `model (b) has no analytic Jacobian here (${(e as Error).message}); used disk + inclined Gaussian + point`;
+  dModel = sum(
+    disk({ diameter: param('diameter', 1.8, { min: 0 }) }),
+    gaussian({ fwhm: param('fwhm', 6, { min: 0 }) })
+      .incline(param('inclination', 50, { min: 0, max: 90 }), param('pa', 30))
+      .weight(param('envelope', 0.3)),
+    point().weight(param('companion', 0.05)).shift(param('east', 4.5), param('north', -2)),
+  );
+}
+const cols = dModel.parameters().length;
+const ND = QUICK ? 50_000 : 200_000;
+const ud = u.subarray(0, ND);
+const vd = v.subarray(0, ND);
+const jout = {
+  re: new Float64Array(ND),
+  im: new Float64Array(ND),
+  dre: new Float64Array(ND * cols),
+  dim: new Float64Array(ND * cols),
+};
+const dOurs = time(() => {
+  const j = visibilityJacobian(dModel, ud, vd, undefined, jout);
+  return j.dre[(ND >> 1) * cols]! + j.re[0]!;
+});
+const dVals = time(ours(dModel, ud, vd, { re: out.re.subarray(0, ND), im: out.im.subarray(0, ND) }));
+rows.push({
+  workload: `(d) values + Jacobian, ${cols} free parameters, ${ND} points`,
+  ours: dOurs.ms,
+  peers: { 'values alone': dVals.ms },
+  note: dNote,
+});
+
+// (e) chromatic with bandwidth smearing, 8 sub-samples
+const ce = columns(NC, 4242);
+const wl = new Float64Array(NC).fill(1.65e-6);
+for (let i = 0; i < NC; i++) wl[i] = 1.5e-6 + (i % 16) * 2e-8;
+const points = {
+  ucoord: ce.u.map((x, i) => x * wl[i]!),
+  vcoord: ce.v.map((x, i) => x * wl[i]!),
+  wavelength: wl,
+  band: new Float64Array(NC).fill(2e-8),
+};
+const eOurs = time(() => chromaticVis2(modelB, points, { samples: 8 })[NC >> 1]!, Math.min(REPEATS, 3));
+const eMono = time(() => modelB.vis2(ce.u, ce.v)[NC >> 1]!);
+rows.push({
+  workload: `(e) chromatic V² of (b), 8 sub-samples per channel, ${NC} points`,
+  ours: eOurs.ms,
+  peers: { 'monochromatic V² (8x fewer evaluations)': eMono.ms },
+});
+
+// (f) the demo fit (docs/demo/kestrel-minor.fits, the binary model of src/cli/demo.ts)
+const demo = readOifits(readFileSync(join(import.meta.dirname, '..', 'docs', 'demo', 'kestrel-minor.fits')));
+const binary = sum(
+  disk({ diameter: param('diameter', 1.5, { min: 0, max: 10 }) }),
+  point()
+    .weight(param('flux', 0.05, { min: 0, max: 1 }))
+    .shift(param('east', 3), param('north', -3)),
+);
+const fOurs = time(() => fit(binary, demo).chi2, Math.min(REPEATS, 3));
+rows.push({
+  workload: `(f) fit of the demo data set (${demo.vis2.length} V², ${demo.t3.length} T3), 4 parameters`,
+  ours: fOurs.ms,
+  peers: {},
+  note: 'wall time only; the scipy least_squares peer of the issue-6 fit is not written yet',
+});
+
+await closeParallelPool();
+peerAfter = runPeer(peerWorkloads);
+for (const r of rows) {
+  for (const k of Object.keys(r.peers)) {
+    if (k === 'numpy') {
+      const key = r.workload.startsWith('(a)')
+        ? `a-${r.workload.slice(4, r.workload.indexOf(',')).replace(/[^a-z]+/g, '-')}`
+        : r.workload.slice(1, 2);
+      r.peers[k] = peerMs(key);
+    }
+  }
+}
+
+// ---------- report ----------
+
+const ratio = (a: number, b: number) => (Number.isFinite(a) && Number.isFinite(b) ? b / a : Number.NaN);
+const fmt = (x: number) => (Number.isFinite(x) ? `${x.toFixed(2)}x` : '-');
+const lines: string[] = [];
+lines.push(`# uvsky benchmarks, ${machine.date.slice(0, 10)}`);
+lines.push('');
+lines.push(
+  `Machine: ${machine.cpu}, ${machine.cores} cores, node ${machine.node}, numpy ${machine.python?.numpy ?? '-'}, ` +
+    `scipy ${machine.python?.scipy ?? '-'}, load average at start ${machine.loadAverageAtStart.join(' ')}. ` +
+    `Median of ${REPEATS} runs. Ratios are peer time / our time (above 1: we are faster; for floors, how close we are).`,
+);
+lines.push('');
+lines.push('| workload | ours (ns/point) | peer | peer time / ours |');
+lines.push('| --- | --- | --- | --- |');
+const perPoint = (r: Row) => {
+  const m = /(\d+) (points|triangles)/.exec(r.workload);
+  return m ? (r.ours * 1e6) / Number(m[1]) : Number.NaN;
+};
+for (const r of rows) {
+  const names = Object.keys(r.peers);
+  names.forEach((p, k) => {
+    lines.push(
+      `| ${k === 0 ? r.workload : ''} | ${k === 0 ? perPoint(r).toFixed(1) : ''} | ${p} | ${fmt(ratio(r.ours, r.peers[p]!))} |`,
+    );
+  });
+  if (r.note) lines.push(`| | | note | ${r.note} |`);
+}
+const bRow = rows.find((r) => r.workload.startsWith('(b)'))!;
+lines.push('');
+lines.push('## Aims (ratios from this run)');
+lines.push('');
+lines.push('| aim | measured |');
+lines.push('| --- | --- |');
+lines.push(
+  `| (b) at least 1.5x faster than NumPy/SciPy, one thread | ${fmt(ratio(bRow.ours, bRow.peers['numpy']!))} |`,
+);
+lines.push(
+  `| (b) within 2.5x of the Math.sin/cos floor (3 ramps) | ${fmt(bRow.ours / bRow.peers['floorMath']!)} of the floor |`,
+);
+lines.push(
+  `| (b) within 2.5x of the sinCosTurns floor | ${fmt(bRow.ours / bRow.peers['floorTurns']!)} of the floor |`,
+);
+lines.push(
+  `| (b) at least 1.7x on 2 threads | ${fmt(bRow.peers['ours, parallel API with 1 thread']! / bRow.peers['ours, 2 threads']!)} (1 thread / 2 threads, parallel API) |`,
+);
+lines.push(
+  `| zero allocation in the hot loop | heap growth per call ${heap.smallBytes.toFixed(0)} B at ${heap.small} points, ${heap.largeBytes.toFixed(0)} B at ${heap.large} points (${(heap.largeBytes / heap.large).toFixed(3)} B per point) |`,
+);
+lines.push(
+  '| memory per point (parallel) | 2 Float64 outputs with SharedArrayBuffer inputs; 4 when the inputs must be copied |',
+);
+lines.push('');
+lines.push(`Heap growth per call of (b) with out buffers: ${heapPerCall.toFixed(0)} bytes (${N} points).`);
+lines.push(
+  `Largest |ours - numpy| over the outputs: ${Object.entries(agreement)
+    .map(([k, d]) => `${k} ${d.toExponential(1)}`)
+    .join(', ')} (aim < ${CHECK_TOL}).`,
+);
+const md = lines.join('\n');
+console.log(md);
+const resultsDir = join(import.meta.dirname, 'results');
+mkdirSync(resultsDir, { recursive: true });
+const stamp = machine.date.slice(0, 10);
+writeFileSync(join(resultsDir, `${stamp}.md`), `${md}\n`);
+writeFileSync(
+  join(resultsDir, `${stamp}.json`),
+  `${JSON.stringify({ machine, rows, heap, agreement }, null, 2)}\n`,
+);
+for (const [k, d] of Object.entries(agreement)) {
+  if (!(d < CHECK_TOL)) {
+    console.error(`${k}: ours and the NumPy peer differ by ${d}, more than ${CHECK_TOL}`);
+    process.exitCode = 1;
+  }
+}

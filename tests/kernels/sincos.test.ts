@@ -1,0 +1,99 @@
+import { describe, expect, it } from 'vitest';
+import { point } from '../../src/index.js';
+import { SIN_COS, sinCosTurns } from '../../src/kernels/sincos.js';
+import { RAD_PER_MAS } from '../../src/units/index.js';
+
+/** Absolute error allowed on sin and cos of a reduced phase (a few ulp of 1). */
+const SINCOS_TOL = 4e-16;
+/** Absolute error allowed on the phase ramp of a shift up to 1 arcsecond, rad. */
+const PHASE_TOL = 1e-12;
+
+/** Exact product a * b as a head and a tail (Dekker / Veltkamp splitting). */
+function twoProduct(a: number, b: number): [number, number] {
+  const p = a * b;
+  const split = (x: number): [number, number] => {
+    const c = 134217729 * x;
+    const hi = c - (c - x);
+    return [hi, x - hi];
+  };
+  const [ah, al] = split(a);
+  const [bh, bl] = split(b);
+  return [p, ah * bh - p + ah * bl + al * bh + al * bl];
+}
+
+/** Fraction of u * e + v * n in turns, kept to about 1e-16 turns, as (-1/2, 1/2]. */
+function exactTurns(u: number, e: number, v: number, n: number): number {
+  const [p1, e1] = twoProduct(u, e);
+  const [p2, e2] = twoProduct(v, n);
+  const f1 = p1 - Math.round(p1);
+  const f2 = p2 - Math.round(p2);
+  const t = f1 + f2 + (e1 + e2);
+  return t - Math.round(t);
+}
+
+describe('sinCosTurns', () => {
+  it('matches Math.sin and Math.cos of the reduced phase to 4e-16 over many turns and all quadrants', () => {
+    let s = 7;
+    let worst = 0;
+    for (let k = 0; k < 20000; k++) {
+      s = (s * 1103515245 + 12345) % 2147483648;
+      const t = (s / 2147483648 - 0.5) * 2000;
+      sinCosTurns(t);
+      const r = t - Math.round(t); // exact
+      worst = Math.max(
+        worst,
+        Math.abs(SIN_COS[0]! - Math.sin(2 * Math.PI * r)),
+        Math.abs(SIN_COS[1]! - Math.cos(2 * Math.PI * r)),
+      );
+    }
+    expect(worst).toBeLessThan(SINCOS_TOL);
+  });
+
+  it('gives exact values at the quarter turns and the right signs in each quadrant', () => {
+    const cases: [number, number, number][] = [
+      [0, 0, 1],
+      [0.25, 1, 0],
+      [0.5, 0, -1],
+      [0.75, -1, 0],
+      [-0.25, -1, 0],
+      [3.125, Math.SQRT1_2, Math.SQRT1_2],
+    ];
+    for (const [t, sin, cos] of cases) {
+      sinCosTurns(t);
+      expect(Math.abs(SIN_COS[0]! - sin)).toBeLessThan(SINCOS_TOL);
+      expect(Math.abs(SIN_COS[1]! - cos)).toBeLessThan(SINCOS_TOL);
+    }
+  });
+
+  it('keeps the whole turns of phases beyond 2^28 turns out of the reduction', () => {
+    sinCosTurns(2 ** 30 + 0.25);
+    expect(Math.abs(SIN_COS[0]! - 1)).toBeLessThan(SINCOS_TOL);
+  });
+});
+
+describe('the phase ramp of a shifted point', () => {
+  it('is within 1e-12 rad of the exact phase for shifts up to 1 arcsecond and |u|, |v| up to 3e8', () => {
+    let s = 99;
+    const rnd = () => {
+      s = (s * 1103515245 + 12345) % 2147483648;
+      return s / 2147483648 - 0.5;
+    };
+    let worst = 0;
+    for (let k = 0; k < 20; k++) {
+      const east = rnd() * 2000; // mas, up to 1 arcsecond either way
+      const north = rnd() * 2000;
+      const u = Float64Array.from({ length: 500 }, () => rnd() * 6e8);
+      const v = Float64Array.from({ length: 500 }, () => rnd() * 6e8);
+      const r = point().shift(east, north).visibilities(u, v);
+      const e0 = east * RAD_PER_MAS;
+      const n0 = north * RAD_PER_MAS;
+      for (let i = 0; i < u.length; i++) {
+        const exact = -2 * Math.PI * exactTurns(u[i]!, e0, v[i]!, n0);
+        let d = Math.atan2(r.im[i]!, r.re[i]!) - exact;
+        d -= 2 * Math.PI * Math.round(d / (2 * Math.PI));
+        worst = Math.max(worst, Math.abs(d));
+      }
+    }
+    expect(worst).toBeLessThan(PHASE_TOL);
+  });
+});
