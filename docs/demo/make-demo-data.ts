@@ -1,13 +1,13 @@
 /**
  * Makes the demo's data file docs/demo/kestrel-minor.fits: an invented observation of the invented star
- * "Kestrel Minor" (a 2.1 mas uniform disk with a 5 % companion 5.4 mas east and 3.3 mas south) by the invented
+ * "Kestrel Minor" (a 2.1 mas limb-darkened disk, linear law a = 0.35, with a 5 % companion 5.4 mas east and 3.3 mas south) by the invented
  * four-station array TALLGRASS with the invented instrument REEDPIPE, with Gaussian noise from a fixed seed.
  * Every name and number here is invented.
  *
  * Run: node --import tsx docs/demo/make-demo-data.ts
  */
 import { writeFileSync } from 'node:fs';
-import { disk, point, sum } from '../../src/index.js';
+import { limbDarkenedDisk, linearLaw, point, sum } from '../../src/index.js';
 import { planObservation, simulate } from '../../src/oifits/index.js';
 
 const plan = planObservation({
@@ -32,7 +32,7 @@ const plan = planObservation({
   errors: { vis2: 0.012, t3phi: 0.7, t3amp: 0.03, visamp: 0.015, visphi: 0.8 },
   date: '2026-11-20',
 });
-const truth = sum(disk({ diameter: 2.1 }), point().weight(0.05).shift(5.4, -3.3));
+const truth = sum(limbDarkenedDisk({ diameter: 2.1, law: linearLaw(0.35) }), point().weight(0.05).shift(5.4, -3.3));
 const { bytes } = simulate(truth, plan, { noise: true, seed: 20261120, write: { date: '2026-11-20' } });
 writeFileSync(new URL('./kestrel-minor.fits', import.meta.url), bytes);
 console.log(`wrote docs/demo/kestrel-minor.fits (${bytes.length} bytes): ${truth.toString()}`);

@@ -8,7 +8,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { companionSearch, type FitResult, fit } from '../fit/index.js';
-import { disk, param, point, sum } from '../index.js';
+import { limbDarkenedDisk, linearLaw, param, point, sum } from '../index.js';
 import { readOifits } from '../oifits/index.js';
 import { beamImage } from './beam-image.js';
 import { imageSvg, scatterSvg } from './svg.js';
@@ -24,8 +24,10 @@ console.log(
     `${new Set(Array.from(data.vis2.wavelength)).size} channels`,
 );
 
-// 1. is there a companion? search a grid around a single star
-const star = disk({ diameter: param('diameter', 1.5, { min: 0, max: 10 }) });
+// 1. is there a companion? search a grid around a single star; the limb-darkening coefficient is held at a
+//    value a model atmosphere would give (invented here), as is common practice for marginally resolved stars
+const LIMB = linearLaw(0.35);
+const star = limbDarkenedDisk({ diameter: param('diameter', 1.5, { min: 0, max: 10 }), law: LIMB });
 const axis = [-9, -6, -3, 0, 3, 6, 9];
 const search = companionSearch(star, data, { east: axis, north: axis, observables: ['vis2', 't3phi'] });
 console.log(
@@ -37,7 +39,7 @@ console.log(
 // 2. refine the binary from the best grid node with every observable
 const b = search.grid.best.values;
 const binary = sum(
-  disk({ diameter: param('diameter', b.diameter!, { min: 0, max: 10 }) }),
+  limbDarkenedDisk({ diameter: param('diameter', b.diameter!, { min: 0, max: 10 }), law: LIMB }),
   point()
     .weight(param('flux', b.companionFlux!, { min: 0, max: 1 }))
     .shift(param('east', b.companionEast!), param('north', b.companionNorth!)),

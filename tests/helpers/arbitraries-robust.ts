@@ -1,5 +1,5 @@
 /**
- * fast-check generators for the robustness tests and `scripts/fuzz.ts`: model trees over every component kind
+ * fast-check generators for the robustness tests and `tests/robustness/long-fuzz.ts`: model trees over every component kind
  * (extending `arbitraries.ts`, which holds the five foundation primitives), and damaged copies of OIFITS files
  * (truncations, bit flips, hostile header values, garbage cards).
  */

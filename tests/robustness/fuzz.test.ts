@@ -1,5 +1,5 @@
 /**
- * Fuzzing with fast-check (fixed seeds, bounded runs; scripts/fuzz.ts runs the same properties longer): damaged
+ * Fuzzing with fast-check (fixed seeds, bounded runs; tests/robustness/long-fuzz.ts runs the same properties longer): damaged
  * OIFITS files read or fail with a UvskyError in bounded time and memory, and random model trees over every
  * component kind evaluate to finite values and survive a JSON round trip. The properties and their bounds are
  * in ./properties.ts.
@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { fuzzModels, fuzzOifits, READ_TIME_LIMIT_MS, seedFiles } from './properties.js';
 
-/** Damaged copies per seed file (about 0.3 s per 150 on this machine; scripts/fuzz.ts runs thousands). */
+/** Damaged copies per seed file (about 0.3 s per 150 on this machine; tests/robustness/long-fuzz.ts runs thousands). */
 const RUNS_PER_FILE = 400;
 /** Random model trees (about 0.1 s per 150). */
 const MODEL_RUNS = 400;

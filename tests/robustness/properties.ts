@@ -1,6 +1,6 @@
 /**
  * The fuzz properties of the robustness suite, shared by tests/robustness/*.test.ts (fixed seeds, few cases)
- * and scripts/fuzz.ts (a seed from the command line, many cases).
+ * and tests/robustness/long-fuzz.ts (a seed from the command line, many cases).
  *
  * OIFITS reader: on any bytes it returns a dataset or throws a UvskyError (never a TypeError, RangeError or
  * other exception), within READ_TIME_LIMIT_MS (a hang detector, not a speed test), and the typed-array memory

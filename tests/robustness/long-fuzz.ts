@@ -9,7 +9,7 @@
  *
  * Exits with status 1 and fast-check's counterexample (seed and path) on the first failing case.
  */
-import { fuzzModels, fuzzOifits, seedFiles } from '../tests/robustness/properties.js';
+import { fuzzModels, fuzzOifits, seedFiles } from './properties.js';
 
 function argInt(text: string | undefined, fallback: number, what: string): number {
   if (text === undefined) return fallback;
