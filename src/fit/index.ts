@@ -46,6 +46,7 @@ export {
   type SamplerResult,
   sampleLogProbability,
 } from './mcmc.js';
+export { type ParallelGridOptions, parallelGridSearch, runGridShare } from './parallel-grid.js';
 export { type ObservableResiduals, type ResidualReport, residuals } from './residuals.js';
 export {
   chi2Survival,
