@@ -32,7 +32,10 @@ const plan = planObservation({
   errors: { vis2: 0.012, t3phi: 0.7, t3amp: 0.03, visamp: 0.015, visphi: 0.8 },
   date: '2026-11-20',
 });
-const truth = sum(limbDarkenedDisk({ diameter: 2.1, law: linearLaw(0.35) }), point().weight(0.05).shift(5.4, -3.3));
+const truth = sum(
+  limbDarkenedDisk({ diameter: 2.1, law: linearLaw(0.35) }),
+  point().weight(0.05).shift(5.4, -3.3),
+);
 const { bytes } = simulate(truth, plan, { noise: true, seed: 20261120, write: { date: '2026-11-20' } });
 writeFileSync(new URL('./kestrel-minor.fits', import.meta.url), bytes);
 console.log(`wrote docs/demo/kestrel-minor.fits (${bytes.length} bytes): ${truth.toString()}`);
