@@ -9,6 +9,8 @@ export default defineConfig({
     'oifits/index': 'src/oifits/index.ts',
     'oifits/node': 'src/oifits/node.ts',
     'fit/index': 'src/fit/index.ts',
+    // worker threads import this module by its own URL, so it is a file of its own in dist
+    'observe/parallel': 'src/observe/parallel.ts',
     'plots/index': 'src/plots/index.ts',
     // the `uvsky` bin (package.json "bin"); its shebang line is kept by the bundler
     'cli/uvsky': 'src/cli/uvsky.ts',

@@ -82,5 +82,12 @@ export {
   visibilityJacobian,
   type WavelengthColumns,
 } from './observe/jacobian.js';
+export {
+  closeParallelPool,
+  MIN_POINTS_PER_THREAD,
+  type ParallelOptions,
+  parallelVisibilities,
+  sharedFloat64Array,
+} from './observe/parallel.js';
 export { parameterVector } from './observe/parameters.js';
 export * from './units/index.js';
