@@ -8,9 +8,9 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { companionSearch, type FitResult, fit } from '../fit/index.js';
+import { renderImage } from '../image/render.js';
 import { limbDarkenedDisk, linearLaw, param, point, sum } from '../index.js';
 import { readOifits } from '../oifits/index.js';
-import { beamImage } from './beam-image.js';
 import { imageSvg, scatterSvg } from './svg.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -144,7 +144,7 @@ const n = 128;
 writeFileSync(
   join(outDir, 'model-image.svg'),
   imageSvg(
-    beamImage(best, n, fov, 0.6),
+    renderImage(best, { pixels: n, fov, smoothing: 0.6 }).intensity,
     n,
     fov,
     'Fitted model seen with a 0.6 mas beam (north up, east left)',
