@@ -130,7 +130,28 @@ export function gridSearch(model: Model, dataset: OifitsDataset, options: GridOp
   });
   if (bestSol === null)
     throw new FitError('gridSearch: every grid node lies outside the parameter bounds', { argument: 'grid' });
-  // distinct minima: merge end points within 1e-3 of the grid spacing along every gridded axis
+  const minima = distinctMinima(nodes, axes, options.minima ?? 5);
+  return {
+    axes: axes.map((a) => Object.freeze({ name: a.name, values: Object.freeze(a.values) })),
+    chi2Map,
+    nodes: Object.freeze(nodes),
+    minima: Object.freeze(minima),
+    best: finishFit(prep, dataset, options, bestSol),
+  };
+}
+
+/**
+ * @internal The best distinct end points of a grid, lowest chi2 first: end points closer than 1e-3 of the grid
+ * spacing along every gridded axis count as one minimum.
+ * @param nodes - every node of the grid
+ * @param axes - the gridded parameters and their node values
+ * @param count - how many minima to keep
+ */
+export function distinctMinima(
+  nodes: readonly GridNode[],
+  axes: readonly { readonly name: string; readonly values: readonly number[] }[],
+  count: number,
+): GridNode[] {
   const spacing = axes.map((a) => {
     const s = [...a.values].sort((x, y) => x - y);
     let d = Number.POSITIVE_INFINITY;
@@ -144,15 +165,9 @@ export function gridSearch(model: Model, dataset: OifitsDataset, options: GridOp
       axes.every((a, i) => Math.abs(m.values[a.name]! - n.values[a.name]!) <= 1e-3 * spacing[i]!),
     );
     if (!same) minima.push(n);
-    if (minima.length >= (options.minima ?? 5)) break;
+    if (minima.length >= count) break;
   }
-  return {
-    axes: axes.map((a) => Object.freeze({ name: a.name, values: Object.freeze(a.values) })),
-    chi2Map,
-    nodes: Object.freeze(nodes),
-    minima: Object.freeze(minima),
-    best: finishFit(prep, dataset, options, bestSol),
-  };
+  return minima;
 }
 
 /** Options of {@link companionSearch}. */

@@ -141,6 +141,7 @@ export function levenbergMarquardt(
   let nu = 2;
   let reason: StopReason = cols === 0 ? 'no free parameters' : 'maximum iterations';
   let iter = 0;
+  let converged = false;
   while (cols > 0 && iter < maxIter) {
     checkAborted(options.signal, 'fit');
     iter++;
@@ -216,16 +217,19 @@ export function levenbergMarquardt(
         lambda *= Math.max(1 / 3, 1 - (2 * rho - 1) ** 3);
         nu = 2;
         options.onIteration?.(iter, chi2);
-        if (oldChi2 - chi2 <= ftol * chi2) reason = 'chi2 change below tolerance';
-        else if (small) reason = 'step below tolerance';
-        else continue;
-        iter = -iter; // signal convergence to the outer loop
+        if (oldChi2 - chi2 <= ftol * chi2) {
+          reason = 'chi2 change below tolerance';
+          converged = true;
+        } else if (small) {
+          reason = 'step below tolerance';
+          converged = true;
+        }
       } else {
         if (Number.isFinite(trialChi2) && predicted >= 0 && predicted <= ftol * chi2) {
           // the best possible decrease is below the tolerance: we are at the minimum to rounding
           reason = 'chi2 change below tolerance';
           accepted = true;
-          iter = -iter;
+          converged = true;
           break;
         }
         lambda *= nu;
@@ -233,10 +237,7 @@ export function levenbergMarquardt(
         if (lambda > 1e16) break;
       }
     }
-    if (iter < 0) {
-      iter = -iter;
-      break;
-    }
+    if (converged) break;
     if (!accepted) {
       reason = 'no downhill step (damping overflow)';
       break;

@@ -15,7 +15,7 @@ import { writeOifits } from '../oifits/write.js';
 import { correlationWhitening } from './correlations.js';
 import { gatherData } from './data.js';
 import { finishFit, prepareFit, solvePrepared } from './fit.js';
-import { type GridNode, type GridOptions, type GridResult, gridSearch } from './grid.js';
+import { distinctMinima, type GridNode, type GridOptions, type GridResult, gridSearch } from './grid.js';
 
 /** Options of {@link parallelGridSearch}. */
 export interface ParallelGridOptions extends GridOptions {
@@ -193,30 +193,14 @@ export async function parallelGridSearch(
       chi2Map[i] = n.chi2;
     });
     // the same minima and best fit as the serial search: refine from the best end point once
-    const sorted = all.filter((n) => Number.isFinite(n.chi2)).sort((a, b) => a.chi2 - b.chi2);
-    if (sorted.length === 0)
+    const finite = all.filter((n) => Number.isFinite(n.chi2));
+    if (finite.length === 0)
       throw new FitError('parallelGridSearch: every grid node lies outside the parameter bounds');
     const axes = entries.map(([name, values]) => Object.freeze({ name, values: Object.freeze([...values]) }));
-    const spacing = axes.map((a) => {
-      const s = [...a.values].sort((x, y) => x - y);
-      let d = Number.POSITIVE_INFINITY;
-      for (let i = 1; i < s.length; i++) d = Math.min(d, s[i]! - s[i - 1]!);
-      return Number.isFinite(d) && d > 0 ? d : 1;
-    });
-    const minima: GridNode[] = [];
-    for (const n of sorted) {
-      if (
-        !minima.some((m) =>
-          axes.every((a, i) => Math.abs(m.values[a.name]! - n.values[a.name]!) <= 1e-3 * spacing[i]!),
-        )
-      ) {
-        minima.push(n);
-      }
-      if (minima.length >= (options.minima ?? 5)) break;
-    }
+    const minima = distinctMinima(all, axes, options.minima ?? 5);
     const blocks = gatherData(dataset, options);
     const prep = prepareFit(model, blocks, correlationWhitening(dataset, blocks));
-    const start = parameterVector(model, sorted[0]!.values);
+    const start = parameterVector(model, minima[0]!.values);
     const sol = solvePrepared(prep, start, { ...options, onProgress: undefined });
     return {
       axes,

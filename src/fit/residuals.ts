@@ -157,8 +157,15 @@ export function residuals(model: Model, dataset: OifitsDataset, options: DataOpt
   }
   const white = correlationWhitening(dataset, blocks);
   if (white) {
+    // the weighted residuals stacked as the fit stacks them, from the predictions already made
     const r = new Float64Array(countData(blocks));
-    residualsAt(model, blocks, r);
+    let at = 0;
+    blocks.forEach((b, k) => {
+      const w = Math.sqrt(b.weight);
+      const n = out[k]!.normalised;
+      for (let i = 0; i < n.length; i++) r[at + i] = w * n[i]!;
+      at += n.length;
+    });
     whiten(white, r);
     chi2 = sumOfSquares(r);
   }

@@ -6,7 +6,7 @@
 import { Complex } from 'complex.js';
 import { InputError, ModelError } from '../errors.js';
 import { PixelGrid, RadialTable } from '../kernels/tabulated.js';
-import { DEG_PER_RAD } from '../units/index.js';
+import { DEG_PER_RAD, frequencyColumn } from '../units/index.js';
 import { canonicalise, type DualTerm, FACTOR_KINDS, type FactorKind } from './canonical.js';
 import {
   chromaticParams,
@@ -150,23 +150,6 @@ function freezeDeep<T>(x: T): T {
     Object.freeze(x);
   }
   return x;
-}
-
-function toF64(x: ArrayLike<number>, fn: string, name: string): Float64Array {
-  if (x === null || typeof x !== 'object' || typeof x.length !== 'number') {
-    throw new InputError(`${fn}: ${name} must be an array or typed array of numbers`, { argument: name });
-  }
-  const a = x instanceof Float64Array ? x : Float64Array.from(x as ArrayLike<number>);
-  for (let i = 0; i < a.length; i++) {
-    const t = a[i]!;
-    if (t - t !== 0) {
-      throw new InputError(
-        `${fn}: ${name}[${i}] is ${Number.isNaN(t) ? 'NaN' : t}; spatial frequencies must be finite numbers in cycles per radian`,
-        { argument: name, index: i },
-      );
-    }
-  }
-  return a;
 }
 
 function sameLength(fn: string, names: readonly string[], arrays: readonly Float64Array[]): number {
@@ -631,8 +614,8 @@ export class Model {
    */
   visibilities(u: ArrayLike<number>, v: ArrayLike<number>, out?: ComplexColumns): ComplexColumns {
     const fn = 'visibilities';
-    let uu = toF64(u, fn, 'u');
-    let vv = toF64(v, fn, 'v');
+    let uu = frequencyColumn(u, fn, 'u');
+    let vv = frequencyColumn(v, fn, 'v');
     const n = sameLength(fn, ['u', 'v'], [uu, vv]);
     const re = out ? checkOut(fn, out.re, n, 'out.re') : new Float64Array(n);
     const im = out ? checkOut(fn, out.im, n, 'out.im') : new Float64Array(n);
@@ -688,10 +671,10 @@ export class Model {
     out?: ComplexColumns,
   ): ComplexColumns {
     const fn = 'bispectrum';
-    const a = toF64(u1, fn, 'u1');
-    const b = toF64(v1, fn, 'v1');
-    const c = toF64(u2, fn, 'u2');
-    const d = toF64(v2, fn, 'v2');
+    const a = frequencyColumn(u1, fn, 'u1');
+    const b = frequencyColumn(v1, fn, 'v1');
+    const c = frequencyColumn(u2, fn, 'u2');
+    const d = frequencyColumn(v2, fn, 'v2');
     const n = sameLength(fn, ['u1', 'v1', 'u2', 'v2'], [a, b, c, d]);
     const re = out ? checkOut(fn, out.re, n, 'out.re') : new Float64Array(n);
     const im = out ? checkOut(fn, out.im, n, 'out.im') : new Float64Array(n);

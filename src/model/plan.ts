@@ -124,6 +124,19 @@ export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
       : null;
     out.push({ flux: t.flux.v, e0: t.east.v * RAD_PER_MAS, n0: t.north.v * RAD_PER_MAS, factors, fused });
   }
+  checkTotalFlux(total, absTotal, path);
+  return { terms: out, totalFlux: total, scratch: new Float64Array(0) };
+}
+
+/**
+ * Throws when a total flux cannot normalise visibilities.
+ *
+ * @param total - sum of the term fluxes
+ * @param absTotal - sum of their magnitudes
+ * @param path - model path for the message
+ * @throws ModelError when |total| < ZERO_FLUX_FRACTION * absTotal (or every flux is zero)
+ */
+export function checkTotalFlux(total: number, absTotal: number, path: string): void {
   if (!(Math.abs(total) >= ZERO_FLUX_FRACTION * absTotal) || absTotal === 0) {
     throw new ModelError(
       `${path}: the total flux is ${total} (sum of |flux| ${absTotal}), so visibilities cannot be normalised; ` +
@@ -131,7 +144,6 @@ export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
       { modelPath: path },
     );
   }
-  return { terms: out, totalFlux: total, scratch: new Float64Array(0) };
 }
 
 /**

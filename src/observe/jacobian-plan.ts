@@ -21,7 +21,7 @@ import { SIN_COS, sinCosTurns } from '../kernels/sincos.js';
 import { GAUSS_K } from '../kernels/terms.js';
 import type { DualTerm } from '../model/canonical.js';
 import type { Dual } from '../model/dual.js';
-import { ZERO_FLUX_FRACTION } from '../model/plan.js';
+import { checkTotalFlux } from '../model/plan.js';
 import { RAD_PER_MAS } from '../units/index.js';
 import { DERIVATIVE_KERNELS, kindCoefficients } from './jacobian-kinds.js';
 
@@ -261,13 +261,7 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
       stride,
     });
   }
-  if (!(Math.abs(total) >= ZERO_FLUX_FRACTION * absTotal) || absTotal === 0) {
-    throw new ModelError(
-      `${path}: the total flux is ${total} (sum of |flux| ${absTotal}), so visibilities cannot be normalised; ` +
-        `give the model a total flux whose magnitude is at least ${ZERO_FLUX_FRACTION} of the sum of |flux|`,
-      { modelPath: path },
-    );
-  }
+  checkTotalFlux(total, absTotal, path);
   return { cols, terms: out, total, dtotal, maxFactors, maxSlopes, maxOut };
 }
 

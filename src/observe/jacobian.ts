@@ -20,7 +20,7 @@ import { InputError, ModelError } from '../errors.js';
 import { canonicalise } from '../model/canonical.js';
 import { hasChromaticSlot } from '../model/chromatic-slot.js';
 import type { Model } from '../model/model.js';
-import { DEG_PER_RAD } from '../units/index.js';
+import { DEG_PER_RAD, frequencyColumn } from '../units/index.js';
 import {
   type ChromaticOptions,
   chromaticBispectrum,
@@ -113,23 +113,6 @@ export type JacobianPoints =
 export type ParameterValues = ArrayLike<number> | Readonly<Record<string, number>>;
 type Values = ParameterValues;
 
-function toColumn(x: ArrayLike<number>, fn: string, name: string): Float64Array {
-  if (x === null || typeof x !== 'object' || typeof x.length !== 'number') {
-    throw new InputError(`${fn}: ${name} must be an array or typed array of numbers`, { argument: name });
-  }
-  const a = x instanceof Float64Array ? x : Float64Array.from(x);
-  for (let i = 0; i < a.length; i++) {
-    const t = a[i]!;
-    if (t - t !== 0) {
-      throw new InputError(
-        `${fn}: ${name}[${i}] is ${t}; spatial frequencies must be finite numbers in cycles per radian`,
-        { argument: name, index: i },
-      );
-    }
-  }
-  return a;
-}
-
 /** A request's columns, checked. */
 interface Request {
   readonly triangles: boolean;
@@ -187,8 +170,8 @@ function readRequest(fn: string, observable: ObservableName, points: JacobianPoi
         { argument: 'observable' },
       );
     }
-    const u = toColumn(points.u, fn, 'u');
-    const v = toColumn(points.v, fn, 'v');
+    const u = frequencyColumn(points.u, fn, 'u');
+    const v = frequencyColumn(points.v, fn, 'v');
     if (u.length !== v.length) {
       throw new InputError(
         `${fn}: u has ${u.length} entries but v has ${v.length}; give arrays of equal length`,
@@ -206,10 +189,10 @@ function readRequest(fn: string, observable: ObservableName, points: JacobianPoi
       { argument: 'observable' },
     );
   }
-  const u1 = toColumn(points.u1, fn, 'u1');
-  const v1 = toColumn(points.v1, fn, 'v1');
-  const u2 = toColumn(points.u2, fn, 'u2');
-  const v2 = toColumn(points.v2, fn, 'v2');
+  const u1 = frequencyColumn(points.u1, fn, 'u1');
+  const v1 = frequencyColumn(points.v1, fn, 'v1');
+  const u2 = frequencyColumn(points.u2, fn, 'u2');
+  const v2 = frequencyColumn(points.v2, fn, 'v2');
   const n = u1.length;
   for (const [name, a] of [
     ['v1', v1],
@@ -321,8 +304,8 @@ export function visibilityJacobian(
   out?: JacobianBuffers,
 ): VisibilityJacobian {
   const fn = 'visibilityJacobian';
-  const uu = toColumn(u, fn, 'u');
-  const vv = toColumn(v, fn, 'v');
+  const uu = frequencyColumn(u, fn, 'u');
+  const vv = frequencyColumn(v, fn, 'v');
   if (uu.length !== vv.length) {
     throw new InputError(
       `${fn}: u has ${uu.length} entries but v has ${vv.length}; give arrays of equal length`,

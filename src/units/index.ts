@@ -100,3 +100,29 @@ export function wrapRadians(rad: number): number {
   else if (r <= -Math.PI) r += twoPi;
   return r;
 }
+
+/**
+ * A column of spatial frequencies as a Float64Array, checked to be finite.
+ *
+ * @param x - an array or typed array of numbers (cycles per radian); a Float64Array is returned as it is, not copied
+ * @param fn - the calling function's name, for the message
+ * @param name - the argument's name, for the message
+ * @returns the values as a Float64Array
+ * @throws InputError naming the argument and the index of the first value that is NaN or infinite
+ */
+export function frequencyColumn(x: ArrayLike<number>, fn: string, name: string): Float64Array {
+  if (x === null || typeof x !== 'object' || typeof x.length !== 'number') {
+    throw new InputError(`${fn}: ${name} must be an array or typed array of numbers`, { argument: name });
+  }
+  const a = x instanceof Float64Array ? x : Float64Array.from(x);
+  for (let i = 0; i < a.length; i++) {
+    const t = a[i]!;
+    if (t - t !== 0) {
+      throw new InputError(
+        `${fn}: ${name}[${i}] is ${t}; spatial frequencies must be finite numbers in cycles per radian`,
+        { argument: name, index: i },
+      );
+    }
+  }
+  return a;
+}
