@@ -7,9 +7,11 @@
  * Method, for a = |x|:
  * - a < 2: J0 = 1 + s B0(s), J1 / x = 1/2 + s B1(s), J2 / x^2 = 1/8 + s B2(s) with s = x^2 and B polynomials
  *   (the power series A&S 9.1.10, economised by a Chebyshev fit), so there is no cancellation near 0;
- * - 2 <= a < 12: one polynomial in t = a - (k + 1/2) per unit interval [k, k + 1];
- * - a >= 12: the Hankel form (A&S 9.2.5) J_n = sqrt(2 / (pi a)) (P_n cos w - Q_n sin w), w = a - (2n + 1) pi / 4,
- *   with P_n and a Q_n polynomials in 144 / a^2. The shift of the phase by pi/4 or 3 pi/4 is applied with the
+ * - 2 <= a < HANKEL_START (48): one polynomial in t = a - (k + 1/2) per unit interval [k, k + 1], read from a
+ *   table (no argument reduction, no division, no square root: the arguments x = pi D q of interferometric
+ *   models lie mostly below a few tens, so this is the common path);
+ * - a >= HANKEL_START: the Hankel form (A&S 9.2.5) J_n = sqrt(2 / (pi a)) (P_n cos w - Q_n sin w),
+ *   w = a - (2n + 1) pi / 4, with P_n and a Q_n polynomials in HANKEL_START^2 / a^2 (degree 6 and 7). The shift of the phase by pi/4 or 3 pi/4 is applied with the
  *   addition theorem to sin a and cos a (cos(a - pi/4) = (cos a + sin a) / sqrt 2, and so on), so a itself is
  *   never rounded by a subtraction of pi/4; sin a and cos a come from one careful reduction of a by pi/2
  *   (`trig.ts`).
@@ -19,6 +21,8 @@
  * @module
  */
 import {
+  diskPiece,
+  HANKEL_START,
   j0NearZeroB,
   j0Piece,
   j1NearZeroB,
@@ -29,12 +33,13 @@ import {
   q0Hankel,
   q1Hankel,
 } from './bessel-coefficients.js';
+
+export { HANKEL_START } from './bessel-coefficients.js';
+
 import { cosSinCombination } from './trig.js';
 
 /** Upper end of the near-zero polynomials in x^2. */
 const NEAR_ZERO_END = 2;
-/** Start of the Hankel form. */
-const HANKEL_START = 12;
 /** 1 / sqrt(pi). */
 const INV_SQRT_PI = 0.5641895835477563;
 
@@ -45,7 +50,7 @@ function j0NonNegative(a: number): number {
     return 1 + s * j0NearZeroB(s);
   }
   if (a < HANKEL_START) {
-    const k = Math.floor(a);
+    const k = a | 0; // floor for 2 <= a < HANKEL_START, cheaper than Math.floor
     return j0Piece(k - 2, a - k - 0.5);
   }
   if (!(a < Number.POSITIVE_INFINITY)) return Number.NaN;
@@ -60,7 +65,7 @@ function j0NonNegative(a: number): number {
 /** J1(a) for a >= 2 or NaN (the caller handles a < 2). */
 function j1AtLeastTwo(a: number): number {
   if (a < HANKEL_START) {
-    const k = Math.floor(a);
+    const k = a | 0; // floor for 2 <= a < HANKEL_START, cheaper than Math.floor
     return j1Piece(k - 2, a - k - 0.5);
   }
   if (!(a < Number.POSITIVE_INFINITY)) return Number.NaN;
@@ -80,7 +85,7 @@ function j1AtLeastTwo(a: number): number {
  *
  * Notes: absolute error below 1e-15 on 0 <= |x| <= 200 against @stdlib/math-base-special-besselj0 and
  * mpmath, and below 1e-15 up to |x| = 1e6 against mpmath (tests/kernels/bessel-j01.test.ts). Near its zeros
- * the error is absolute, not relative. Method: fitted polynomials below 12, Hankel's asymptotic form
+ * the error is absolute, not relative. Method: fitted polynomials below 48, Hankel's asymptotic form
  * (Abramowitz & Stegun 9.2.5) with fitted P0, Q0 above (see the module notes).
  *
  * @example
@@ -148,13 +153,14 @@ export function besselJ2(x: number): number {
  * @returns 2 J1(x) / x, an even function, 1 at x = 0; NaN for non-finite x
  *
  * Notes: below |x| = 2 it is the polynomial 1 + 2 x^2 B1(x^2) in x^2 (the power series of A&S 9.1.10
- * economised), so small x loses nothing to cancellation and x = 0 gives exactly 1; above, 2 J1(|x|) / |x|.
+ * economised), so small x loses nothing to cancellation and x = 0 gives exactly 1; from 2 to HANKEL_START
+ * (48) a polynomial per unit interval fitted to 2 J1(x) / x itself; above, 2 J1(|x|) / |x|.
  * Absolute error below 1e-15. The uniform-disk formula is that of e.g. Berger & Segransan 2007.
  *
  * @example
  * ```ts
  * diskAmplitude(0); // 1
- * diskAmplitude(3.831705970207512); // 6.107951874582538e-17, at the first null
+ * diskAmplitude(3.831705970207512); // 6.372477566969963e-17, at the first null
  * ```
  */
 export function diskAmplitude(x: number): number {
@@ -162,6 +168,10 @@ export function diskAmplitude(x: number): number {
   if (a < NEAR_ZERO_END) {
     const s = a * a;
     return 1 + 2 * s * j1NearZeroB(s);
+  }
+  if (a < HANKEL_START) {
+    const k = (a | 0) - 2; // floor(a) - 2 for 2 <= a < HANKEL_START
+    return diskPiece(k, a - k - 2.5); // its own table: no division by a
   }
   return (2 * j1AtLeastTwo(a)) / a;
 }

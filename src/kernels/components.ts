@@ -9,7 +9,12 @@
  * @module
  */
 import { besselJ0, besselJ2, diskAmplitude, powerLawAmplitude } from './bessel.js';
-import { SIN_COS, sinCosTurns } from './sincos.js';
+import {
+  SIN_COS as SIN_COS_IMPORT,
+  sinCosPhase as sinCosPhaseImport,
+  sinCosTurns as sinCosTurnsImport,
+  splitHead,
+} from './sincos.js';
 
 /** Linearly limb-darkened disk of unit diameter; coefficients [c1, c32] (see {@link limbDarkenedCoefficients}). */
 export const RADIAL_LINEAR_LD = 16;
@@ -251,7 +256,9 @@ export function mulComponentRadial(
  * Adds a term with one radial component factor, `flux * P(r) * exp(-2 pi i (u e0 + v n0))`, in one pass.
  *
  * Notes: the linear, quadratic and exponential kinds have their own loops (the hot cases); the others go
- * through {@link componentRadialAmplitude}.
+ * through {@link componentRadialAmplitude}. With `exact` the phase ramp goes through sinCosPhase (the products
+ * u e0, v n0 split, about 1e-16 turns for any shift); without, the caller has found |u e0| + |v n0| below
+ * PLAIN_PHASE_TURNS (phaseNeedsSplit in sincos.ts) and the plain sum is accurate enough.
  */
 export function addComponentRadialTerm(
   code: number,
@@ -268,7 +275,15 @@ export function addComponentRadialTerm(
   n0: number,
   p: Float64Array,
   data: unknown,
+  exact: boolean,
 ): void {
+  const sinCosPhase = sinCosPhaseImport;
+  const sinCosTurns = sinCosTurnsImport;
+  const SIN_COS = SIN_COS_IMPORT;
+  const eh = splitHead(e0);
+  const el = e0 - eh;
+  const nh = splitHead(n0);
+  const nl = n0 - nh;
   const m12x2 = 2 * m12;
   const shifted = e0 !== 0 || n0 !== 0;
   if (code === RADIAL_LINEAR_LD || code === RADIAL_QUADRATIC_LD) {
@@ -281,7 +296,8 @@ export function addComponentRadialTerm(
       const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
       const a = flux * quadraticLimbAmplitude(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0), c1, c32, c2);
       if (shifted) {
-        sinCosTurns(uu * e0 + vv * n0);
+        if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+        else sinCosTurns(uu * e0 + vv * n0);
         re[i] = re[i]! + a * SIN_COS[1]!;
         im[i] = im[i]! - a * SIN_COS[0]!;
       } else re[i] = re[i]! + a;
@@ -296,7 +312,8 @@ export function addComponentRadialTerm(
       const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
       const a = flux * powerLawAmplitude(nu, Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
       if (shifted) {
-        sinCosTurns(uu * e0 + vv * n0);
+        if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+        else sinCosTurns(uu * e0 + vv * n0);
         re[i] = re[i]! + a * SIN_COS[1]!;
         im[i] = im[i]! - a * SIN_COS[0]!;
       } else re[i] = re[i]! + a;
@@ -309,7 +326,8 @@ export function addComponentRadialTerm(
     const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
     const a = flux * componentRadialAmplitude(code, r2, p, data);
     if (shifted) {
-      sinCosTurns(uu * e0 + vv * n0);
+      if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+      else sinCosTurns(uu * e0 + vv * n0);
       re[i] = re[i]! + a * SIN_COS[1]!;
       im[i] = im[i]! - a * SIN_COS[0]!;
     } else re[i] = re[i]! + a;
@@ -396,6 +414,9 @@ export function mulComponentComplex(
 
 /**
  * Adds `amp[i] * (cre[i] + i cim[i]) * exp(-2 pi i (u e0 + v n0))` into (re, im).
+ *
+ * Notes: `exact` as for the radial terms: the split phase of sinCosPhase when u e0 + v n0 can exceed
+ * PLAIN_PHASE_TURNS (sincos.ts), else the plain one.
  */
 export function addComplexAmplitudeTerm(
   re: Float64Array,
@@ -408,14 +429,25 @@ export function addComplexAmplitudeTerm(
   n: number,
   e0: number,
   n0: number,
+  exact: boolean,
 ): void {
+  const sinCosPhase = sinCosPhaseImport;
+  const sinCosTurns = sinCosTurnsImport;
+  const SIN_COS = SIN_COS_IMPORT;
+  const eh = splitHead(e0);
+  const el = e0 - eh;
+  const nh = splitHead(n0);
+  const nl = n0 - nh;
   const shifted = e0 !== 0 || n0 !== 0;
   for (let i = 0; i < n; i++) {
     const a = amp[i]!;
     const xr = a * cre[i]!;
     const xi = a * cim[i]!;
     if (shifted) {
-      sinCosTurns(u[i]! * e0 + v[i]! * n0);
+      const uu = u[i]!;
+      const vv = v[i]!;
+      if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+      else sinCosTurns(uu * e0 + vv * n0);
       const c = SIN_COS[1]!;
       const s = SIN_COS[0]!;
       // (xr + i xi)(c - i s)

@@ -21,10 +21,11 @@ Method (all arithmetic in mpmath at 50 significant digits):
 Fitted pieces:
   J0, J1, J2 on 0 <= x <= 2, as polynomials in s = x^2 with the value at 0 pinned:
       J0 = 1 + s B0(s),  J1 / x = 1/2 + s B1(s),  J2 / x^2 = 1/8 + s B2(s)
-  J0, J1 on [n, n + 1] for n = 2 .. 11, as polynomials in t = x - (n + 1/2)
-  J0, J1 on x >= 12 through the Hankel form
+  J0, J1, 2 J1 / x, 3 (sin x - x cos x) / x^3 and 8 J2 / x^2 on [n, n + 1] for n = 2 .. X0 - 1, as
+  polynomials in t = x - (n + 1/2)
+  J0, J1 on x >= X0 through the Hankel form
       J_n(x) = sqrt(2 / (pi x)) (P_n(x) cos w - Q_n(x) sin w),  w = x - (2 n + 1) pi / 4,
-  with P_n and x Q_n as polynomials in t = 144 / x^2 on [0, 1]; P and Q are taken
+  with P_n and x Q_n as polynomials in t = X0^2 / x^2 on [0, 1]; P and Q are taken
   from mpmath's besselj and bessely.
   sin r and cos r on |r| <= pi/4, as polynomials in r^2 (from their Taylor series), and pi/2 split in two
   parts for the argument reduction of sin and cos in the Hankel form.
@@ -41,6 +42,11 @@ import mpmath as mp
 
 mp.mp.dps = 50
 TAIL = mp.mpf('1e-19')
+# Where the unit-width pieces end and Hankel's form takes over (bessel-j01.ts HANKEL_START). Pieces are
+# cheaper to evaluate than the Hankel form with its argument reduction, so they reach to where most
+# interferometric arguments lie (x = pi D q up to a few tens); beyond, t = X0^2 / x^2 is small and P, Q
+# need few terms.
+X0 = 48
 HERE = os.path.dirname(os.path.abspath(__file__))
 
 
@@ -228,34 +234,45 @@ def main():
     near_zero('J1_NEAR_ZERO', 'j1NearZeroB', 1, '1/2')
     near_zero('J2_NEAR_ZERO', 'j2NearZeroB', 2, '1/8')
 
-    # --- pieces of unit width on [2, 12) ----------------------------------------------------
-    for n in (0, 1):
+    # --- pieces of unit width on [2, X0) ----------------------------------------------------
+    # J0, J1, and the basis of limb-darkened disks: D(x) = 2 J1(x) / x (uniform disk), L(x) =
+    # 3 (sin x - x cos x) / x^3 (the profile sqrt(1 - r^2)) and W(x) = 8 J2(x) / x^2 (the profile 1 - r^2).
+    # The three basis tables share one degree, so that a plan can add them into one table per law.
+    pieces = (
+        ('J0_PIECES', 'j0Piece', 'J0(x)', lambda x: mp.besselj(0, x), None),
+        ('J1_PIECES', 'j1Piece', 'J1(x)', lambda x: mp.besselj(1, x), None),
+        ('DISK_PIECES', 'diskPiece', '2 J1(x) / x', lambda x: 2 * mp.besselj(1, x) / x, 'basis'),
+        ('L32_PIECES', 'l32Piece', '3 (sin x - x cos x) / x^3', lambda x: 3 * (mp.sin(x) - x * mp.cos(x)) / x**3,
+         'basis'),
+        ('W2_PIECES', 'w2Piece', '8 J2(x) / x^2', lambda x: 8 * mp.besselj(2, x) / x**2, 'basis'),
+    )
+    degree_of = {}
+    for name, fn, what, f, group in pieces:
+        degree_of[name] = max(fit(f, k, k + 1, 24, (2, 0))[1] for k in range(2, X0))
+    basis_degree = max(degree_of[name] for name, _, _, _, group in pieces if group == 'basis')
+    for name, fn, what, f, group in pieces:
+        deg = basis_degree if group == 'basis' else degree_of[name]
         table = []
-        degs = []
         errs = []
-        # common degree: the largest needed by any piece
-        for k in range(2, 12):
-            _, d = fit(lambda x: mp.besselj(n, x), k, k + 1, 24, (2, 0))
-            degs.append(d)
-        deg = max(degs)
-        for k in range(2, 12):
+        for k in range(2, X0):
             mid = mp.mpf(k) + mp.mpf(1) / 2
-            coeffs, _ = fit(lambda x: mp.besselj(n, x), k, k + 1, 24, (2, 0), deg)
-            errs.append(check(coeffs, lambda x: mp.besselj(n, x), k, k + 1, lambda x: x - mid, 100))
+            coeffs, _ = fit(f, k, k + 1, 24, (2, 0), deg)
+            errs.append(check(coeffs, f, k, k + 1, lambda x: x - mid, 100))
             table.extend(coeffs)
-        name = f'J{n}_PIECES'
-        report.append(f'// {name}: degree {deg} in t = x - (k + 1/2) on [k, k + 1], k = 2 .. 11, '
+        report.append(f'// {name}: degree {deg} in t = x - (k + 1/2) on [k, k + 1], k = 2 .. {X0 - 1}, '
                       f'largest error {mp.nstr(max(errs), 3)}')
-        out.append(f'/** {name}: {deg + 1} coefficients per piece [k, k + 1], k = 2 .. 11, in t = x - (k + 1/2). */')
-        out.append(f'const {name} = new Float64Array([\n  {fmt(table)},\n]);\n')
-        out.append(poly_table_fn(f'j{n}Piece', f'J{n}(x) on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).',
-                                   name, deg + 1))
+        out.append(f'/** {name}: {deg + 1} coefficients per piece [k, k + 1], k = 2 .. {X0 - 1}, in t = x - (k + 1/2). */')
+        exported = 'export ' if group == 'basis' else ''
+        out.append(f'{exported}const {name} = new Float64Array([\n  {fmt(table)},\n]);\n')
+        out.append(poly_table_fn(fn, f'{what} on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).', name, deg + 1))
+    out.append(f'/** Coefficients per piece of DISK_PIECES, L32_PIECES and W2_PIECES. */\n'
+               f'export const BASIS_STRIDE = {basis_degree + 1};\n')
 
-    # --- Hankel form on x >= 12, polynomials in t = 144 / x^2 --------------------------------
+    # --- Hankel form on x >= X0, polynomials in t = X0^2 / x^2 --------------------------------
     for n in (0, 1):
         def x_of(t):
             t = max(t, mp.mpf('1e-80'))
-            return 12 / mp.sqrt(t)
+            return X0 / mp.sqrt(t)
 
         p = lambda t: hankel_pq(n, x_of(t))[0]  # noqa: E731
         q = lambda t: hankel_pq(n, x_of(t))[1] * x_of(t)  # noqa: E731
@@ -264,9 +281,10 @@ def main():
             err = check(coeffs, g, 0, 1, lambda t: t, 200)
             name = f'{label}{n}_HANKEL'
             what = f'{label}_{n}(x)' if label == 'P' else f'x Q_{n}(x)'
-            report.append(f'// {name}: {what}, degree {deg} in t = 144 / x^2, largest error {mp.nstr(err, 3)}')
+            report.append(f'// {name}: {what}, degree {deg} in t = {X0 * X0} / x^2, largest error {mp.nstr(err, 3)}')
             fn = f'{label.lower()}{n}Hankel'
-            out.append(poly_fn(fn, f'{name}: {what} for x >= 12, t = 144 / x^2.', 't', coeffs))
+            out.append(poly_fn(fn, f'{name}: {what} for x >= {X0}, t = {X0 * X0} / x^2.', 't', coeffs))
+    out.append(f'/** Where the pieces end and the Hankel form begins. */\nexport const HANKEL_START = {X0};\n')
 
     # --- sin and cos on |r| <= pi/4, and pi/2 in two parts for the argument reduction ------------------
     # sin r = r + r^3 S(r^2), cos r = 1 - r^2/2 + r^4 C(r^2), S and C from their Taylor series.

@@ -30,8 +30,10 @@ const C12 = 1 / 479001600;
 const C14 = -1 / 87178291200;
 const C16 = 1 / 20922789888000;
 
-/** Beyond this many turns the whole turns are removed first, so that 4 t + 1/2 keeps its fraction. */
-const BIG = 2 ** 28;
+/** Beyond this many turns the whole turns are removed first, so that 4 t + 1/2 + OFFSET stays below 2^31. */
+const BIG = 2 ** 26;
+/** Added before the int32 truncation so that it rounds down (the truncated value is positive). */
+const OFFSET = 2 ** 30;
 
 /**
  * Writes sin(2 pi t) and cos(2 pi t) into {@link SIN_COS}.
@@ -39,10 +41,13 @@ const BIG = 2 ** 28;
  * @param t - phase in turns (any finite value; accuracy is that of t itself, reduced exactly)
  *
  * Notes: absolute error below 4e-16 for both values (tested against Math.sin / Math.cos of the reduced
- * phase, tests/kernels/sincos.test.ts); a few multiply-adds, no branch on the quadrant, no table look-up and
- * no call into the runtime. Measured in benchmarks/run.ts beside Math.sin plus Math.cos of 2 pi t: the quadrant
- * is found with Math.floor and put back by arithmetic, because a look-up in a quadrant table indexed by an
- * int32 conversion made the call about three times slower than the arithmetic itself.
+ * phase, tests/kernels/sincos.test.ts); a few multiply-adds (Estrin's scheme, so the two polynomials do not
+ * wait on one long chain), no branch on the quadrant, no table look-up and no call into the runtime. The
+ * quadrant q = floor(4 t + 1/2) comes from an int32 truncation of 4 t + 1/2 + 2^30 (positive, so truncation
+ * is the floor; Math.floor measured about 3 ns slower per call in benchmarks/run.ts); when 4 t + 1/2 + 2^30
+ * rounds up across an integer, r = t - q / 4 lies up to 2^-24 outside [-1/8, 1/8], where the series are still
+ * far below an ulp in error. The quadrant is put back by arithmetic on q & 3: a quadrant table indexed by it
+ * made the call about three times slower than the arithmetic.
  *
  * @example
  * ```ts
@@ -53,20 +58,60 @@ const BIG = 2 ** 28;
  */
 export function sinCosTurns(t: number): void {
   if (t > BIG || t < -BIG) t -= Math.round(t); // whole turns change nothing
-  const q = Math.floor(4 * t + 0.5);
+  const q = ((4 * t + (0.5 + OFFSET)) | 0) - OFFSET;
   const r = t - q * 0.25; // exact
   const x = TWO_PI * r;
   const x2 = x * x;
-  const s = x * (1 + x2 * (S3 + x2 * (S5 + x2 * (S7 + x2 * (S9 + x2 * (S11 + x2 * (S13 + x2 * S15)))))));
-  const c =
-    1 + x2 * (C2 + x2 * (C4 + x2 * (C6 + x2 * (C8 + x2 * (C10 + x2 * (C12 + x2 * (C14 + x2 * C16)))))));
+  const x4 = x2 * x2;
+  const x8 = x4 * x4;
+  // the small parts are summed first and added to the leading term last, so their rounding stays below an ulp
+  const s = x + x * (x2 * S3 + (x4 * (S5 + x2 * S7) + x8 * (S9 + x2 * S11 + x4 * (S13 + x2 * S15))));
+  const c = 1 + (x2 * C2 + (x4 * (C4 + x2 * C6) + x8 * (C8 + x2 * C10 + x4 * (C12 + x2 * C14) + x8 * C16)));
   // t = r + k / 4 with k = q mod 4 in {0, 1, 2, 3}: rotate (cos, sin) of 2 pi r by k quarter turns
-  const k = q - 4 * Math.floor(q * 0.25);
+  const k = q & 3;
   const odd = k & 1;
   const even = 1 - odd;
   const sign = 1 - (k & 2);
   SIN_COS[0] = sign * (s * even + c * odd);
   SIN_COS[1] = sign * (c * even - s * odd);
+}
+
+/**
+ * Largest phase, in turns, whose plain evaluation `u * e + v * n` is accurate enough: the two roundings of the
+ * products and the one of their sum cost at most 3 * 2^-53 * PLAIN_PHASE_TURNS turns, here 2.1e-14 turns or
+ * 1.3e-13 rad, well inside the 1e-12 rad the phase ramps are held to. Larger phases go through
+ * {@link sinCosPhase}.
+ */
+export const PLAIN_PHASE_TURNS = 64;
+
+/**
+ * Whether the phase ramp of a shift (e, n) needs {@link sinCosPhase} over points whose |u|, |v| are at most
+ * uMax, vMax: true when |u e| + |v n| can exceed {@link PLAIN_PHASE_TURNS} turns (or a bound is not finite).
+ *
+ * @param uMax - largest |u| of the points, cycles per radian
+ * @param vMax - largest |v| of the points
+ * @param e - shift east, rad
+ * @param n - shift north, rad
+ * @returns true for the split evaluation, false when `sinCosTurns(u * e + v * n)` is accurate enough
+ */
+export function phaseNeedsSplit(uMax: number, vMax: number, e: number, n: number): boolean {
+  return !(uMax * Math.abs(e) + vMax * Math.abs(n) <= PLAIN_PHASE_TURNS);
+}
+
+/**
+ * Largest |x| over x[start..end) (NaN when one is NaN, so that {@link phaseNeedsSplit} then says true).
+ *
+ * @param x - a column
+ * @param start - first index
+ * @param end - one past the last index
+ */
+export function maxAbs(x: Float64Array, start: number, end: number): number {
+  let m = 0;
+  for (let i = start; i < end; i++) {
+    const a = Math.abs(x[i]!);
+    if (!(a <= m)) m = a;
+  }
+  return m;
 }
 
 /** 2^27 + 1: Veltkamp's constant that splits a binary64 number into two halves of 26 bits. */

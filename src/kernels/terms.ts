@@ -1,6 +1,7 @@
 /**
  * Visibility kernels of canonical terms: loops over typed arrays that add one term's complex contribution
- * `flux * P(A^T q) * exp(-2 pi i q . x0)` into `re`, `im`. No objects are created inside the loops.
+ * `flux * P(A^T q) * exp(-2 pi i q . x0)` into `re`, `im` for the points start..end - 1 (the plan runs them on
+ * blocks of points small enough to stay in the first-level caches). No objects are created inside the loops.
  *
  * Layout: complex numbers are held as separate `re` and `im` Float64Arrays of equal length.
  * Units: u, v in cycles per radian; quadratic forms M = A A^T in rad^2; shifts e0, n0 in radians.
@@ -8,8 +9,15 @@
  * @module
  */
 import { besselJ0 as besselJ0Import, diskAmplitude as diskAmplitudeImport } from './bessel.js';
+import { HANKEL_START as PIECES_END } from './bessel-coefficients.js';
 import { quadraticLimbAmplitude as quadraticLimbAmplitudeImport } from './components.js';
-import { SIN_COS as SIN_COS_IMPORT, sinCosPhase as sinCosPhaseImport, splitHead } from './sincos.js';
+import { basisPiece as basisPieceImport } from './limb-pieces.js';
+import {
+  SIN_COS as SIN_COS_IMPORT,
+  sinCosPhase as sinCosPhaseImport,
+  sinCosTurns as sinCosTurnsImport,
+  splitHead,
+} from './sincos.js';
 import { cosSinCombination as cosSinCombinationImport } from './trig.js';
 
 // Every loop below copies the imported kernels and the SIN_COS buffer into locals before it starts: a read of
@@ -29,31 +37,39 @@ export const RADIAL_THIN_RING = 2;
 /**
  * Adds the phase ramp of a shifted term without size, `flux * exp(-2 pi i (u e0 + v n0))`.
  *
- * Notes: the phase is reduced in turns (exactly) before it is turned into radians, so a shift of any size
- * keeps only the rounding error of the product u * e0 (about |t| * 1.1e-16 turns).
+ * Notes: the phase is reduced in turns (exactly) before it is turned into radians. With `exact` the products
+ * u e0 and v n0 are split so that the phase keeps about 1e-16 turns whatever its size ({@link sinCosPhase});
+ * without, the plain u e0 + v n0 costs at most 3 * 2^-53 of the phase (the caller guarantees that this is
+ * below 2.1e-14 turns, phaseNeedsSplit in sincos.ts).
  */
 export function addPointTerm(
   re: Float64Array,
   im: Float64Array,
   u: Float64Array,
   v: Float64Array,
-  n: number,
+  start: number,
+  end: number,
   flux: number,
   e0: number,
   n0: number,
+  exact: boolean,
 ): void {
   const sinCosPhase = sinCosPhaseImport;
+  const sinCosTurns = sinCosTurnsImport;
   const eh = splitHead(e0);
   const el = e0 - eh;
   const nh = splitHead(n0);
   const nl = n0 - nh;
   const SIN_COS = SIN_COS_IMPORT;
   if (e0 === 0 && n0 === 0) {
-    for (let i = 0; i < n; i++) re[i] = re[i]! + flux;
+    for (let i = start; i < end; i++) re[i] = re[i]! + flux;
     return;
   }
-  for (let i = 0; i < n; i++) {
-    sinCosPhase(u[i]!, v[i]!, eh, el, nh, nl);
+  for (let i = start; i < end; i++) {
+    const uu = u[i]!;
+    const vv = v[i]!;
+    if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+    else sinCosTurns(uu * e0 + vv * n0);
     re[i] = re[i]! + flux * SIN_COS[1]!;
     im[i] = im[i]! - flux * SIN_COS[0]!;
   }
@@ -66,7 +82,8 @@ export function addPointTerm(
  * @param amp - amplitudes to multiply in place
  * @param u - spatial frequencies east (cycles/rad)
  * @param v - spatial frequencies north (cycles/rad)
- * @param n - number of points
+ * @param start - first point
+ * @param end - one past the last point
  * @param m11 - quadratic form entries of M = A A^T (rad^2)
  * @param m12 - off-diagonal entry
  * @param m22 - second diagonal entry
@@ -76,7 +93,8 @@ export function mulRadial(
   amp: Float64Array,
   u: Float64Array,
   v: Float64Array,
-  n: number,
+  start: number,
+  end: number,
   m11: number,
   m12: number,
   m22: number,
@@ -86,7 +104,7 @@ export function mulRadial(
   const m12x2 = 2 * m12;
   switch (code) {
     case RADIAL_UNIFORM_DISK:
-      for (let i = 0; i < n; i++) {
+      for (let i = start; i < end; i++) {
         const uu = u[i]!;
         const vv = v[i]!;
         const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
@@ -94,7 +112,7 @@ export function mulRadial(
       }
       return;
     case RADIAL_GAUSSIAN:
-      for (let i = 0; i < n; i++) {
+      for (let i = start; i < end; i++) {
         const uu = u[i]!;
         const vv = v[i]!;
         const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
@@ -102,7 +120,7 @@ export function mulRadial(
       }
       return;
     case RADIAL_THIN_RING:
-      for (let i = 0; i < n; i++) {
+      for (let i = start; i < end; i++) {
         const uu = u[i]!;
         const vv = v[i]!;
         const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
@@ -126,15 +144,18 @@ export function addRadialTerm(
   im: Float64Array,
   u: Float64Array,
   v: Float64Array,
-  n: number,
+  start: number,
+  end: number,
   flux: number,
   m11: number,
   m12: number,
   m22: number,
   e0: number,
   n0: number,
+  exact: boolean,
 ): void {
   const sinCosPhase = sinCosPhaseImport;
+  const sinCosTurns = sinCosTurnsImport;
   const eh = splitHead(e0);
   const el = e0 - eh;
   const nh = splitHead(n0);
@@ -147,17 +168,18 @@ export function addRadialTerm(
   switch (code) {
     case RADIAL_UNIFORM_DISK:
       if (shifted) {
-        for (let i = 0; i < n; i++) {
+        for (let i = start; i < end; i++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * diskAmplitude(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          sinCosPhase(uu, vv, eh, el, nh, nl);
+          if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+          else sinCosTurns(uu * e0 + vv * n0);
           re[i] = re[i]! + a * SIN_COS[1]!;
           im[i] = im[i]! - a * SIN_COS[0]!;
         }
       } else {
-        for (let i = 0; i < n; i++) {
+        for (let i = start; i < end; i++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
@@ -167,17 +189,18 @@ export function addRadialTerm(
       return;
     case RADIAL_GAUSSIAN:
       if (shifted) {
-        for (let i = 0; i < n; i++) {
+        for (let i = start; i < end; i++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
-          sinCosPhase(uu, vv, eh, el, nh, nl);
+          if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+          else sinCosTurns(uu * e0 + vv * n0);
           re[i] = re[i]! + a * SIN_COS[1]!;
           im[i] = im[i]! - a * SIN_COS[0]!;
         }
       } else {
-        for (let i = 0; i < n; i++) {
+        for (let i = start; i < end; i++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
@@ -187,17 +210,18 @@ export function addRadialTerm(
       return;
     case RADIAL_THIN_RING:
       if (shifted) {
-        for (let i = 0; i < n; i++) {
+        for (let i = start; i < end; i++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * besselJ0(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          sinCosPhase(uu, vv, eh, el, nh, nl);
+          if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+          else sinCosTurns(uu * e0 + vv * n0);
           re[i] = re[i]! + a * SIN_COS[1]!;
           im[i] = im[i]! - a * SIN_COS[0]!;
         }
       } else {
-        for (let i = 0; i < n; i++) {
+        for (let i = start; i < end; i++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
@@ -211,6 +235,18 @@ export function addRadialTerm(
 }
 
 /**
+ * A foundation radial factor at r^2 = q^T M q (clamped at 0): the Gaussian, uniform disk or thin ring.
+ * @param code - RADIAL_GAUSSIAN, RADIAL_UNIFORM_DISK or RADIAL_THIN_RING (checked by the caller)
+ * @param r2raw - q^T M q
+ */
+function radialUnit(code: number, r2raw: number): number {
+  const r2 = r2raw > 0 ? r2raw : 0;
+  if (code === RADIAL_GAUSSIAN) return Math.exp(-GAUSS_K * r2);
+  if (code === RADIAL_UNIFORM_DISK) return diskAmplitudeImport(Math.PI * Math.sqrt(r2));
+  return besselJ0Import(Math.PI * Math.sqrt(r2));
+}
+
+/**
  * Adds `amp[i] * exp(-2 pi i (u e0 + v n0))` for real amplitudes already multiplied by the term's flux.
  */
 export function addAmplitudeTerm(
@@ -219,22 +255,28 @@ export function addAmplitudeTerm(
   amp: Float64Array,
   u: Float64Array,
   v: Float64Array,
-  n: number,
+  start: number,
+  end: number,
   e0: number,
   n0: number,
+  exact: boolean,
 ): void {
   const sinCosPhase = sinCosPhaseImport;
+  const sinCosTurns = sinCosTurnsImport;
   const eh = splitHead(e0);
   const el = e0 - eh;
   const nh = splitHead(n0);
   const nl = n0 - nh;
   const SIN_COS = SIN_COS_IMPORT;
   if (e0 === 0 && n0 === 0) {
-    for (let i = 0; i < n; i++) re[i] = re[i]! + amp[i]!;
+    for (let i = start; i < end; i++) re[i] = re[i]! + amp[i]!;
     return;
   }
-  for (let i = 0; i < n; i++) {
-    sinCosPhase(u[i]!, v[i]!, eh, el, nh, nl);
+  for (let i = start; i < end; i++) {
+    const uu = u[i]!;
+    const vv = v[i]!;
+    if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+    else sinCosTurns(uu * e0 + vv * n0);
     const a = amp[i]!;
     re[i] = re[i]! + a * SIN_COS[1]!;
     im[i] = im[i]! - a * SIN_COS[0]!;
@@ -253,10 +295,13 @@ export function addAmplitudeTerm(
  * @param im - imaginary parts to add into
  * @param u - spatial frequencies east (cycles/rad)
  * @param v - spatial frequencies north (cycles/rad)
- * @param n - number of points
+ * @param start - first point
+ * @param end - one past the last point
  * @param flux - term flux
  * @param e0 - shift east, rad
  * @param n0 - shift north, rad
+ * @param exact - whether the phase needs {@link sinCosPhase} (see phaseNeedsSplit in sincos.ts); otherwise
+ *   sinCosTurns(u e0 + v n0) is accurate enough
  *
  * Notes: gives the same numbers as multiplying the factors one loop at a time ({@link mulRadial}) and adding the
  * ramp ({@link addAmplitudeTerm}): the factors are multiplied into the flux in the same order.
@@ -269,12 +314,15 @@ export function addRadialProductTerm(
   im: Float64Array,
   u: Float64Array,
   v: Float64Array,
-  n: number,
+  start: number,
+  end: number,
   flux: number,
   e0: number,
   n0: number,
+  exact: boolean,
 ): void {
   const sinCosPhase = sinCosPhaseImport;
+  const sinCosTurns = sinCosTurnsImport;
   const eh = splitHead(e0);
   const el = e0 - eh;
   const nh = splitHead(n0);
@@ -289,7 +337,34 @@ export function addRadialProductTerm(
       throw new Error(`addRadialProductTerm: unknown kernel code ${c}`);
     }
   }
-  for (let i = 0; i < n; i++) {
+  if (nf === 2) {
+    // two factors (a blurred ring, a blurred disk): unrolled, the forms in locals
+    const unit = radialUnit;
+    const c0 = codes[0]!;
+    const c1 = codes[1]!;
+    const a11 = m[0]!;
+    const a12 = 2 * m[1]!;
+    const a22 = m[2]!;
+    const b11 = m[3]!;
+    const b12 = 2 * m[4]!;
+    const b22 = m[5]!;
+    for (let i = start; i < end; i++) {
+      const uu = u[i]!;
+      const vv = v[i]!;
+      const a =
+        flux *
+        unit(c0, a11 * uu * uu + a12 * uu * vv + a22 * vv * vv) *
+        unit(c1, b11 * uu * uu + b12 * uu * vv + b22 * vv * vv);
+      if (shifted) {
+        if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+        else sinCosTurns(uu * e0 + vv * n0);
+        re[i] = re[i]! + a * SIN_COS[1]!;
+        im[i] = im[i]! - a * SIN_COS[0]!;
+      } else re[i] = re[i]! + a;
+    }
+    return;
+  }
+  for (let i = start; i < end; i++) {
     const uu = u[i]!;
     const vv = v[i]!;
     let a = flux;
@@ -304,7 +379,8 @@ export function addRadialProductTerm(
       else a *= besselJ0(Math.PI * Math.sqrt(r2));
     }
     if (shifted) {
-      sinCosPhase(uu, vv, eh, el, nh, nl);
+      if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+      else sinCosTurns(uu * e0 + vv * n0);
       re[i] = re[i]! + a * SIN_COS[1]!;
       im[i] = im[i]! - a * SIN_COS[0]!;
     } else re[i] = re[i]! + a;
@@ -319,21 +395,25 @@ export function addRadialProductTerm(
  * @param im - imaginary parts to add into
  * @param u - spatial frequencies east (cycles/rad)
  * @param v - spatial frequencies north (cycles/rad)
- * @param n - number of points
+ * @param start - first point
+ * @param end - one past the last point
  * @param flux - term flux
  * @param m11 - M = A A^T entries (rad^2)
  * @param m12 - off-diagonal entry
  * @param m22 - second diagonal entry
  * @param e0 - shift east, rad
  * @param n0 - shift north, rad
+ * @param exact - whether the phase needs {@link sinCosPhase} (see phaseNeedsSplit in sincos.ts); otherwise
+ *   sinCosTurns(u e0 + v n0) is accurate enough
  * @param c1 - weight of 2 J1(x)/x (see limbDarkenedCoefficients in components.ts)
  * @param c32 - weight of L_{3/2}(x) = 3 (sin x - x cos x) / x^3
  * @param c2 - weight of 8 J2(x)/x^2 (0 for the linear law)
+ * @param pieces - the law's table on the unit pieces, limbPieces(c1, c32, c2) (limb-pieces.ts)
  *
- * Notes: the arithmetic of `quadraticLimbAmplitude` of components.ts, written out with local copies of the
- * kernels (no imported-binding loads in the loop), except that above x = 2 the combination sin x - x cos x comes
- * from `cosSinCombination` (one argument reduction shared by both, error below 2e-16 (1 + x)) instead of
- * Math.sin and Math.cos; below x = 2 it calls `quadraticLimbAmplitude` itself. The two agree to about 1e-16
+ * Notes: below x = 2 it calls `quadraticLimbAmplitude` of components.ts itself; from 2 to HANKEL_START (48)
+ * the whole law is one polynomial per unit piece (`pieces`, the basis tables of bessel-coefficients.ts added
+ * with the law's weights; error of each basis polynomial below 4e-17); beyond, 2 J1(x)/x from diskAmplitude and sin x - x cos x from
+ * `cosSinCombination` (one argument reduction shared by both, error below 2e-16 (1 + x)). The two agree to about 1e-16
  * (tests/model/limb-darkening.test.ts checks the values against closed forms to 2e-14).
  */
 export function addLimbDarkenedTerm(
@@ -341,7 +421,8 @@ export function addLimbDarkenedTerm(
   im: Float64Array,
   u: Float64Array,
   v: Float64Array,
-  n: number,
+  start: number,
+  end: number,
   flux: number,
   m11: number,
   m12: number,
@@ -351,8 +432,11 @@ export function addLimbDarkenedTerm(
   c1: number,
   c32: number,
   c2: number,
+  pieces: Float64Array,
+  exact: boolean,
 ): void {
   const sinCosPhase = sinCosPhaseImport;
+  const sinCosTurns = sinCosTurnsImport;
   const eh = splitHead(e0);
   const el = e0 - eh;
   const nh = splitHead(n0);
@@ -362,16 +446,21 @@ export function addLimbDarkenedTerm(
   const besselJ0 = besselJ0Import;
   const nearZero = quadraticLimbAmplitudeImport;
   const sinMinusXCos = cosSinCombinationImport;
+  const basisPiece = basisPieceImport;
   const m12x2 = 2 * m12;
   const shifted = e0 !== 0 || n0 !== 0;
-  for (let i = 0; i < n; i++) {
+  for (let i = start; i < end; i++) {
     const uu = u[i]!;
     const vv = v[i]!;
     const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
     const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
     let p: number;
     if (x < 2) p = nearZero(x, c1, c32, c2);
-    else {
+    else if (x < PIECES_END) {
+      // the law's own polynomial on the piece (limbPieces): c1 D + c32 L + c2 W in one evaluation
+      const k = (x | 0) - 2; // floor, 2 <= x < PIECES_END
+      p = basisPiece(pieces, k, x - k - 2.5);
+    } else {
       const d = diskAmplitude(x);
       // sin x - x cos x with one shared argument reduction (trig.ts) instead of Math.sin and Math.cos
       const l32 = (3 * sinMinusXCos(x, -x, 1)) / (x * x * x);
@@ -379,7 +468,8 @@ export function addLimbDarkenedTerm(
     }
     const a = flux * p;
     if (shifted) {
-      sinCosPhase(uu, vv, eh, el, nh, nl);
+      if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
+      else sinCosTurns(uu * e0 + vv * n0);
       re[i] = re[i]! + a * SIN_COS[1]!;
       im[i] = im[i]! - a * SIN_COS[0]!;
     } else re[i] = re[i]! + a;

@@ -8,6 +8,8 @@ import { cosReducedC, PIO2_HI, PIO2_LO, sinReducedS, TWO_OVER_PI } from './besse
 
 /** Up to here n = round(2a / pi) stays below 2^20, so that n * PIO2_HI is exact. */
 const REDUCTION_MAX = 1.6e6;
+/** Added before the int32 truncation that rounds a 2 / pi, so that the truncated value is positive. */
+const ROUND_OFFSET = 2 ** 30;
 
 /**
  * The combination A cos(a) + B sin(a), evaluated without forming a - n pi/2 twice.
@@ -31,7 +33,8 @@ const REDUCTION_MAX = 1.6e6;
  */
 export function cosSinCombination(a: number, A: number, B: number): number {
   if (!(Math.abs(a) <= REDUCTION_MAX)) return A * Math.cos(a) + B * Math.sin(a);
-  const n = Math.round(a * TWO_OVER_PI);
+  // round(a 2 / pi) by an int32 truncation of a positive number (|n| < 2^20 here), cheaper than Math.round
+  const n = ((a * TWO_OVER_PI + (0.5 + ROUND_OFFSET)) | 0) - ROUND_OFFSET;
   const r = a - n * PIO2_HI - n * PIO2_LO;
   const u = r * r;
   const s = r + r * u * sinReducedS(u);

@@ -24,6 +24,7 @@ import {
   RADIAL_QUADRATIC_LD,
   RADIAL_TABLE,
 } from '../kernels/components.js';
+import { maxAbs, phaseNeedsSplit } from '../kernels/sincos.js';
 import { addAmplitudeTerm, mulRadial } from '../kernels/terms.js';
 import type { ComponentFactorKind } from './component-canonical.js';
 
@@ -132,9 +133,10 @@ export function addComponentTerm(
   im: Float64Array,
   n: number,
 ): void {
+  const exact = phaseNeedsSplit(maxAbs(u, 0, n), maxAbs(v, 0, n), e0, n0);
   if (factors.length === 1 && isComponentRadial(factors[0]!.code)) {
     const f = factors[0]!;
-    addComponentRadialTerm(f.code, re, im, u, v, n, flux, f.m11, f.m12, f.m22, e0, n0, f.p, f.data);
+    addComponentRadialTerm(f.code, re, im, u, v, n, flux, f.m11, f.m12, f.m22, e0, n0, f.p, f.data, exact);
     return;
   }
   const s = scratchFor(owner, n);
@@ -152,9 +154,9 @@ export function addComponentTerm(
     } else if (isComponentRadial(f.code)) {
       mulComponentRadial(f.code, amp, u, v, n, f.m11, f.m12, f.m22, f.p, f.data);
     } else {
-      mulRadial(f.code, amp, u, v, n, f.m11, f.m12, f.m22);
+      mulRadial(f.code, amp, u, v, 0, n, f.m11, f.m12, f.m22);
     }
   }
-  if (complex) addComplexAmplitudeTerm(re, im, amp, s.cre, s.cim, u, v, n, e0, n0);
-  else addAmplitudeTerm(re, im, amp, u, v, n, e0, n0);
+  if (complex) addComplexAmplitudeTerm(re, im, amp, s.cre, s.cim, u, v, n, e0, n0, exact);
+  else addAmplitudeTerm(re, im, amp, u, v, 0, n, e0, n0, exact);
 }

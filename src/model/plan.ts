@@ -6,6 +6,8 @@
  */
 import { ModelError } from '../errors.js';
 import { RADIAL_LINEAR_LD, RADIAL_QUADRATIC_LD } from '../kernels/components.js';
+import { limbPieces } from '../kernels/limb-pieces.js';
+import { maxAbs, phaseNeedsSplit } from '../kernels/sincos.js';
 import {
   addLimbDarkenedTerm,
   addPointTerm,
@@ -65,6 +67,10 @@ export interface PlanTerm {
    * fused loop (foundation radial products), or null when the term goes through the general loops.
    */
   readonly fused?: { readonly codes: Int32Array; readonly m: Float64Array } | null;
+  /** @internal True when a factor is one of the extended components (run over all points, after the blocks). */
+  readonly component?: boolean;
+  /** @internal For a lone limb-darkened disk: its law's table on the unit pieces (limbPieces, limb-pieces.ts). */
+  readonly limb?: Float64Array | null;
 }
 
 /** A compiled model: terms in radians with kernel codes, the total flux, and scratch buffers. */
@@ -122,7 +128,24 @@ export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
           m: Float64Array.from(factors.flatMap((f) => [f.m11, f.m12, f.m22])),
         }
       : null;
-    out.push({ flux: t.flux.v, e0: t.east.v * RAD_PER_MAS, n0: t.north.v * RAD_PER_MAS, factors, fused });
+    // a lone limb-darkened disk has its own block kernel (addLimbDarkenedTerm); other components do not
+    const loneLimb =
+      factors.length === 1 &&
+      (factors[0]!.code === RADIAL_LINEAR_LD || factors[0]!.code === RADIAL_QUADRATIC_LD);
+    const component = !loneLimb && factors.some(isComponentFactor);
+    const lp = factors[0]?.p;
+    const limb = loneLimb
+      ? limbPieces(lp![0]!, lp![1]!, factors[0]!.code === RADIAL_QUADRATIC_LD ? lp![2]! : 0)
+      : null;
+    out.push({
+      flux: t.flux.v,
+      e0: t.east.v * RAD_PER_MAS,
+      n0: t.north.v * RAD_PER_MAS,
+      factors,
+      fused,
+      component,
+      limb,
+    });
   }
   checkTotalFlux(total, absTotal, path);
   return { terms: out, totalFlux: total, scratch: new Float64Array(0) };
@@ -147,6 +170,12 @@ export function checkTotalFlux(total: number, absTotal: number, path: string): v
 }
 
 /**
+ * Points per block of {@link runPlan}: the block's u, v, re and im (32 kB) stay in the first- or second-level
+ * cache while every term adds into them, instead of one pass over the whole columns per term.
+ */
+export const PLAN_BLOCK = 1024;
+
+/**
  * Evaluates the normalised complex visibility of a plan into `re`, `im`.
  *
  * @param plan - a compiled plan
@@ -155,6 +184,12 @@ export function checkTotalFlux(total: number, absTotal: number, path: string): v
  * @param re - output real parts (length >= n); may not alias u or v
  * @param im - output imaginary parts (length >= n)
  * @param n - number of points
+ *
+ * Notes: terms of the foundation kinds and the limb-darkened disks run block by block ({@link PLAN_BLOCK}
+ * points), with the decision between the split and the plain phase ramp ({@link phaseNeedsSplit}) taken per
+ * block from its largest |u| and |v|; terms with other components run over all points afterwards (their
+ * kernels keep scratch of the full length). Without such terms each term's flux is divided by the total flux
+ * before it is added (no last pass); with them, the sum is normalised at the end.
  */
 export function runPlan(
   plan: Plan,
@@ -164,29 +199,68 @@ export function runPlan(
   im: Float64Array,
   n: number,
 ): void {
-  re.fill(0, 0, n);
-  im.fill(0, 0, n);
-  for (const t of plan.terms) {
-    const nf = t.factors.length;
-    const f0 = t.factors[0];
-    if (nf === 1 && (f0!.code === RADIAL_LINEAR_LD || f0!.code === RADIAL_QUADRATIC_LD)) {
-      const p = f0!.p;
-      const c2 = f0!.code === RADIAL_QUADRATIC_LD ? p[2]! : 0;
-      addLimbDarkenedTerm(re, im, u, v, n, t.flux, f0!.m11, f0!.m12, f0!.m22, t.e0, t.n0, p[0]!, p[1]!, c2);
-    } else if (t.factors.some(isComponentFactor)) {
-      addComponentTerm(plan, t.flux, t.e0, t.n0, t.factors, u, v, re, im, n);
-    } else if (nf === 0) {
-      addPointTerm(re, im, u, v, n, t.flux, t.e0, t.n0);
-    } else if (nf === 1) {
-      const f = f0!;
-      addRadialTerm(f.code, re, im, u, v, n, t.flux, f.m11, f.m12, f.m22, t.e0, t.n0);
-    } else {
-      // a product of foundation kinds (compilePlan packed it): one fused pass, no scratch
-      const fused = t.fused!;
-      addRadialProductTerm(fused.codes, fused.m, nf, re, im, u, v, n, t.flux, t.e0, t.n0);
+  const terms = plan.terms;
+  const k = 1 / plan.totalFlux;
+  let late = false;
+  let shifted = false;
+  for (const t of terms) {
+    if (t.component === true) late = true;
+    if (t.e0 !== 0 || t.n0 !== 0) shifted = true;
+  }
+  // without extended components every term is added already normalised (flux / total), with no last pass
+  const scale = late ? 1 : k;
+  for (let b0 = 0; b0 < n; b0 += PLAN_BLOCK) {
+    const b1 = b0 + PLAN_BLOCK < n ? b0 + PLAN_BLOCK : n;
+    re.fill(0, b0, b1);
+    im.fill(0, b0, b1);
+    const uMax = shifted ? maxAbs(u, b0, b1) : 0;
+    const vMax = shifted ? maxAbs(v, b0, b1) : 0;
+    for (let j = 0; j < terms.length; j++) {
+      const t = terms[j]!;
+      const nf = t.factors.length;
+      const f0 = t.factors[0];
+      const exact = phaseNeedsSplit(uMax, vMax, t.e0, t.n0);
+      const flux = t.flux * scale;
+      if (t.component === true) {
+        // a term with other components: below, over all points
+      } else if (nf === 1 && (f0!.code === RADIAL_LINEAR_LD || f0!.code === RADIAL_QUADRATIC_LD)) {
+        const p = f0!.p;
+        const c2 = f0!.code === RADIAL_QUADRATIC_LD ? p[2]! : 0;
+        addLimbDarkenedTerm(
+          re,
+          im,
+          u,
+          v,
+          b0,
+          b1,
+          flux,
+          f0!.m11,
+          f0!.m12,
+          f0!.m22,
+          t.e0,
+          t.n0,
+          p[0]!,
+          p[1]!,
+          c2,
+          t.limb!,
+          exact,
+        );
+      } else if (nf === 0) {
+        addPointTerm(re, im, u, v, b0, b1, flux, t.e0, t.n0, exact);
+      } else if (nf === 1) {
+        const f = f0!;
+        addRadialTerm(f.code, re, im, u, v, b0, b1, flux, f.m11, f.m12, f.m22, t.e0, t.n0, exact);
+      } else {
+        // a product of foundation kinds (compilePlan packed it): one fused pass, no scratch
+        const fused = t.fused!;
+        addRadialProductTerm(fused.codes, fused.m, nf, re, im, u, v, b0, b1, flux, t.e0, t.n0, exact);
+      }
     }
   }
-  const k = 1 / plan.totalFlux;
+  if (!late) return;
+  for (const t of terms) {
+    if (t.component === true) addComponentTerm(plan, t.flux, t.e0, t.n0, t.factors, u, v, re, im, n);
+  }
   for (let i = 0; i < n; i++) {
     re[i] = re[i]! * k;
     im[i] = im[i]! * k;

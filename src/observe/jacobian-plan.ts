@@ -14,7 +14,7 @@
  */
 import { ModelError } from '../errors.js';
 import { besselJ0, besselJ1, diskAmplitude } from '../kernels/bessel.js';
-import { j0Piece, j1Piece } from '../kernels/bessel-coefficients.js';
+import { HANKEL_START, j0Piece, j1Piece } from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
 import { SIN_COS, sinCosTurns } from '../kernels/sincos.js';
@@ -41,7 +41,7 @@ const GK = GAUSS_K;
 const j0p = j0Piece;
 const j1p = j1Piece;
 /** Where besselJ0 and besselJ1 leave their unit-interval polynomials for Hankel's form (bessel-j01.ts). */
-const PIECES_END = 12;
+const PIECES_END = HANKEL_START;
 
 /** Factor codes of the per-point loop: the three foundation kinds inline, then any radial, then complex. */
 const CODE_DISK = 0;
@@ -432,7 +432,7 @@ function simpleTerm(t: JTerm, m: number, s: Scratch): void {
             let jx0: number;
             let jx1: number;
             if (x < PIECES_END) {
-              const k = Math.floor(x);
+              const k = x | 0; // floor, 2 <= x < PIECES_END
               const tt = x - k - 0.5;
               jx0 = j0p(k - 2, tt);
               jx1 = j1p(k - 2, tt);

@@ -102,6 +102,28 @@ export function wrapRadians(rad: number): number {
 }
 
 /**
+ * Whether every entry of a column is finite: x * 0 is 0 for finite x and NaN otherwise, summed in four
+ * independent chains (a loop with a test per entry measured about four times slower).
+ * @param a - a column
+ */
+export function allFinite(a: Float64Array): boolean {
+  const n = a.length;
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let i = 0;
+  for (; i + 3 < n; i += 4) {
+    s0 += a[i]! * 0;
+    s1 += a[i + 1]! * 0;
+    s2 += a[i + 2]! * 0;
+    s3 += a[i + 3]! * 0;
+  }
+  for (; i < n; i++) s0 += a[i]! * 0;
+  return s0 + s1 + s2 + s3 === 0;
+}
+
+/**
  * A column of spatial frequencies as a Float64Array, checked to be finite.
  *
  * @param x - an array or typed array of numbers (cycles per radian); a Float64Array is returned as it is, not copied
@@ -115,6 +137,7 @@ export function frequencyColumn(x: ArrayLike<number>, fn: string, name: string):
     throw new InputError(`${fn}: ${name} must be an array or typed array of numbers`, { argument: name });
   }
   const a = x instanceof Float64Array ? x : Float64Array.from(x);
+  if (allFinite(a)) return a;
   for (let i = 0; i < a.length; i++) {
     const t = a[i]!;
     if (t - t !== 0) {

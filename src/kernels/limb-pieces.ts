@@ -1,0 +1,46 @@
+/**
+ * Limb-darkened disks on the unit-interval tables: a law's visibility c1 D(x) + c32 L(x) + c2 W(x) (see
+ * limbDarkenedCoefficients in components.ts) is, on each piece [k, k + 1] with 2 <= k < HANKEL_START, one
+ * polynomial whose coefficients are the same combination of the basis tables' coefficients. A plan adds the
+ * tables once for its law, and each point then costs one polynomial instead of three.
+ *
+ * @module
+ */
+import { BASIS_STRIDE, DISK_PIECES, L32_PIECES, W2_PIECES } from './bessel-coefficients.js';
+
+/**
+ * The table of c1 D + c32 L + c2 W per piece, with D = 2 J1(x)/x, L = 3 (sin x - x cos x)/x^3, W = 8 J2(x)/x^2.
+ *
+ * @param c1 - weight of D
+ * @param c32 - weight of L
+ * @param c2 - weight of W (0 for the linear law)
+ * @returns BASIS_STRIDE coefficients per piece, for {@link basisPiece}
+ *
+ * Notes: each coefficient is rounded once more than the basis tables' own; at the points the result differs
+ * from the sum of the three polynomials by a few ulp of (|c1| + |c32| + |c2|) times the largest basis value.
+ */
+export function limbPieces(c1: number, c32: number, c2: number): Float64Array {
+  const out = new Float64Array(DISK_PIECES.length);
+  for (let j = 0; j < out.length; j++)
+    out[j] = c1 * DISK_PIECES[j]! + c32 * L32_PIECES[j]! + c2 * W2_PIECES[j]!;
+  return out;
+}
+
+/**
+ * Evaluates piece k of a table with BASIS_STRIDE (16) coefficients per piece at t, by Estrin's scheme.
+ *
+ * @param T - the table ({@link limbPieces} or a basis table)
+ * @param k - piece index (x in [k + 2, k + 3])
+ * @param t - x - (k + 5/2), in [-1/2, 1/2]
+ */
+export function basisPiece(T: Float64Array, k: number, t: number): number {
+  const o = k * BASIS_STRIDE;
+  const t2 = t * t;
+  const t4 = t2 * t2;
+  const t8 = t4 * t4;
+  const a = T[o]! + T[o + 1]! * t + (T[o + 2]! + T[o + 3]! * t) * t2;
+  const b = T[o + 4]! + T[o + 5]! * t + (T[o + 6]! + T[o + 7]! * t) * t2;
+  const c = T[o + 8]! + T[o + 9]! * t + (T[o + 10]! + T[o + 11]! * t) * t2;
+  const d = T[o + 12]! + T[o + 13]! * t + (T[o + 14]! + T[o + 15]! * t) * t2;
+  return a + b * t4 + (c + d * t4) * t8;
+}
