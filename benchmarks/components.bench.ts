@@ -2,7 +2,7 @@
  * Component benchmark: ns per point for each kernel of the extended component set, beside the uniform-disk
  * kernel measured in the same run (the ratio column), all shifted so the phase ramp is included.
  *
- * Run: node --import tsx benchmarks/components.bench.ts [points]
+ * Run: npm run build && node benchmarks/node-run.mjs benchmarks/components.bench.ts [points]
  */
 import {
   annulus,
@@ -20,7 +20,7 @@ import {
   powerLaw,
   quadraticLaw,
   radialProfile,
-} from '../src/index.js';
+} from 'uvsky';
 
 const N = Number(process.argv[2] ?? 200_000);
 const REPEATS = 5;

@@ -3,11 +3,11 @@
  * per-point complex.js evaluation (using the npm `bessel` package for J0/J1) measured in the same run.
  * Aim (issue 2): the shifted disk term at or under 25 ns per point on one core.
  *
- * Run: node --import tsx benchmarks/evaluate.bench.ts [points]
+ * Run: npm run build && node benchmarks/node-run.mjs benchmarks/evaluate.bench.ts [points]
  */
 import bessel from 'bessel';
 import { Complex } from 'complex.js';
-import { disk, ellipse, gaussian, type Model, point, RAD_PER_MAS, ring } from '../src/index.js';
+import { disk, ellipse, gaussian, type Model, point, RAD_PER_MAS, ring } from 'uvsky';
 
 const N = Number(process.argv[2] ?? 1_000_000);
 const REPEATS = 7;

@@ -2,9 +2,9 @@
  * Issue 4 benchmark: the cost of values plus the analytic Jacobian against values alone, for a 3-component model
  * with 8 free parameters, measured side by side in one run. Aim: ratio <= 3.
  *
- * Run: node --import tsx benchmarks/jacobian.bench.ts [points]
+ * Run: npm run build && node benchmarks/node-run.mjs benchmarks/jacobian.bench.ts [points]
  */
-import { disk, gaussian, param, point, sum, visibilityJacobian } from '../src/index.js';
+import { disk, gaussian, param, point, sum, visibilityJacobian } from 'uvsky';
 
 const N = Number(process.argv[2] ?? 200_000);
 const REPEATS = 7;

@@ -4,7 +4,7 @@
  * phase ramps with Math.sin / Math.cos, and the same with sinCosTurns), reported as ratios. Medians of repeated
  * runs; a report goes to benchmarks/results/<date>.json and .md.
  *
- * Run: node --import tsx benchmarks/run.ts [--quick]
+ * Run: npm run bench (or bench:quick): builds the package, then node benchmarks/node-run.mjs benchmarks/run.ts [--quick]
  */
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -12,9 +12,9 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import bessel from 'bessel';
 import { Complex } from 'complex.js';
-import { fit } from '../src/fit/index.js';
 import {
   chromaticVis2,
+  closeParallelPool,
   disk,
   ellipse,
   gaussian,
@@ -22,16 +22,18 @@ import {
   limbDarkenedDisk,
   linearLaw,
   type Model,
+  parallelVisibilities,
   param,
   point,
   RAD_PER_MAS,
   ring,
+  sharedFloat64Array,
   sum,
   visibilityJacobian,
-} from '../src/index.js';
+} from 'uvsky';
+import { fit } from 'uvsky/fit';
+import { planObservation, readOifits, simulate } from 'uvsky/oifits';
 import { SIN_COS, sinCosTurns } from '../src/kernels/sincos.js';
-import { closeParallelPool, parallelVisibilities, sharedFloat64Array } from '../src/observe/parallel.js';
-import { planObservation, readOifits, simulate } from '../src/oifits/index.js';
 
 const QUICK = process.argv.includes('--quick');
 const N = QUICK ? 200_000 : 1_000_000;

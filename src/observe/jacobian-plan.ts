@@ -14,10 +14,10 @@
  */
 import { ModelError } from '../errors.js';
 import { besselJ0, besselJ1, diskAmplitude } from '../kernels/bessel.js';
-import { HANKEL_START, j0Piece, j1Piece } from '../kernels/bessel-coefficients.js';
+import { diskPiece, HANKEL_START, w2Piece } from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
-import { SIN_COS, sinCosTurns } from '../kernels/sincos.js';
+import { maxAbs, phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
 import { GAUSS_K } from '../kernels/terms.js';
 import type { DualTerm } from '../model/canonical.js';
 import type { Dual } from '../model/dual.js';
@@ -36,10 +36,11 @@ const j1 = besselJ1;
 const disk = diskAmplitude;
 const j2x2 = j2OverX2;
 const sinCos = sinCosTurns;
+const sinCosSplit = sinCosPhase;
 const SC = SIN_COS;
 const GK = GAUSS_K;
-const j0p = j0Piece;
-const j1p = j1Piece;
+const diskP = diskPiece;
+const w2P = w2Piece;
 /** Where besselJ0 and besselJ1 leave their unit-interval polynomials for Hankel's form (bessel-j01.ts). */
 const PIECES_END = HANKEL_START;
 
@@ -57,6 +58,11 @@ interface JTerm {
   readonly e0: number;
   readonly n0: number;
   readonly shifted: boolean;
+  /** Heads and tails of e0 and n0 (splitHead), for the split phase of sinCosPhase. */
+  readonly eh: number;
+  readonly el: number;
+  readonly nh: number;
+  readonly nl: number;
   readonly nf: number;
   /** True when a factor is complex (non-radial). */
   readonly complex: boolean;
@@ -243,6 +249,10 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
       e0,
       n0,
       shifted: e0 !== 0 || n0 !== 0,
+      eh: splitHead(e0),
+      el: e0 - splitHead(e0),
+      nh: splitHead(n0),
+      nl: n0 - splitHead(n0),
       nf,
       complex,
       coefficients: p.some((x) => x.length > 0),
@@ -262,10 +272,17 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
     });
   }
   checkTotalFlux(total, absTotal, path);
-  return { cols, terms: out, total, dtotal, maxFactors, maxSlopes, maxOut };
+  // Terms carry flux / T and d flux / dp / T, so that they add V = F / T and dF / T directly (runJacobian)
+  const inv = 1 / total;
+  const scaled = out.map((t) => {
+    const coef = t.coef.slice();
+    for (let o = 0; o < coef.length; o += t.stride) coef[o] = coef[o]! * inv;
+    return { ...t, flux: t.flux * inv, coef };
+  });
+  return { cols, terms: scaled, total, dtotal, maxFactors, maxSlopes, maxOut };
 }
 
-/** Points per block: the block's derivative accumulators (2 x cols x BLOCK doubles) stay in the L1 cache. */
+/** Points per block: the block's rows of the outputs (2 x cols x BLOCK doubles) stay in the L1 cache. */
 const BLOCK = 128;
 
 /** Per-run scratch (allocated once per call, never per point). */
@@ -295,9 +312,6 @@ interface Scratch {
   /** Per block point: F (unnormalised). */
   readonly fre: Float64Array;
   readonly fim: Float64Array;
-  /** dF per parameter and block point, parameter-major: [j * BLOCK + point]. */
-  readonly dfr: Float64Array;
-  readonly dfi: Float64Array;
 }
 
 function scratchFor(plan: JPlan): Scratch {
@@ -326,8 +340,6 @@ function scratchFor(plan: JPlan): Scratch {
     tim: b(),
     fre: b(),
     fim: b(),
-    dfr: new Float64Array(Math.max(1, plan.cols) * BLOCK),
-    dfi: new Float64Array(Math.max(1, plan.cols) * BLOCK),
   };
 }
 
@@ -346,8 +358,9 @@ function scratchFor(plan: JPlan): Scratch {
  * Notes: points go in blocks of {@link BLOCK}. Within a block, a term with at most one factor and no kernel
  * coefficients (a point, disk, Gaussian, ring, exponential, ...: the common case) runs one loop per kernel
  * kind over the block and then, per free parameter that moves it, one loop with that parameter's chain-rule
- * coefficients held in locals; other terms go point by point. dF is kept parameter-major per block and
- * normalised into the row-major outputs at the end of the block.
+ * coefficients held in locals; other terms go point by point. The terms carry flux / T, so they add V and
+ * dF / T straight into the row-major outputs; at the end of the block -V dT / T is added for the parameters
+ * that move the total flux T (weights), which completes dV = (dF - V dT) / T.
  */
 export function runJacobian(
   plan: JPlan,
@@ -361,9 +374,15 @@ export function runJacobian(
 ): void {
   const cols = plan.cols;
   const s = scratchFor(plan);
-  const { bu, bv, bu2, buv, bv2, fre, fim, dfr, dfi } = s;
+  const { bu, bv, bu2, buv, bv2, fre, fim } = s;
   const invTot = 1 / plan.total;
   const dtotal = plan.dtotal;
+  // the parameters that move the total flux, with dT / T
+  const moving: number[] = [];
+  for (let j = 0; j < cols; j++) if (dtotal[j] !== 0) moving.push(j);
+  const dtn = Float64Array.from(moving, (j) => dtotal[j]! * invTot);
+  const nm = moving.length;
+  const movingIdx = Int32Array.from(moving);
   const terms = plan.terms;
   const nt = terms.length;
   for (let i0 = 0; i0 < n; i0 += BLOCK) {
@@ -379,34 +398,48 @@ export function runJacobian(
       fre[b] = 0;
       fim[b] = 0;
     }
-    dfr.fill(0, 0, cols * BLOCK);
-    dfi.fill(0, 0, cols * BLOCK);
+    const row0 = i0 * cols;
+    dre.fill(0, row0, row0 + m * cols);
+    dim.fill(0, row0, row0 + m * cols);
+    // the split phase ramp only where u e0 + v n0 can exceed PLAIN_PHASE_TURNS (as the value path)
+    const uMax = maxAbs(bu, 0, m);
+    const vMax = maxAbs(bv, 0, m);
     for (let k = 0; k < nt; k++) {
       const t = terms[k]!;
-      if (t.complex) for (let b = 0; b < m; b++) complexTerm(t, b, s);
-      else if (t.nf <= 1 && !t.coefficients) simpleTerm(t, m, s);
-      else for (let b = 0; b < m; b++) realTerm(t, b, s);
+      const exact = phaseNeedsSplit(uMax, vMax, t.e0, t.n0);
+      if (t.complex) for (let b = 0; b < m; b++) complexTerm(t, b, s, exact, dre, dim, row0 + b * cols);
+      else if (t.nf <= 1 && !t.coefficients) simpleTerm(t, m, s, exact, dre, dim, row0, cols);
+      else for (let b = 0; b < m; b++) realTerm(t, b, s, exact, dre, dim, row0 + b * cols);
     }
-    // normalise: V = F / T, dV = (dF - V dT) / T
+    // the terms added V = F / T and dF / T (their fluxes are divided by T, compileJacobianPlan); what is
+    // left of dV = (dF - V dT) / T is -V dT / T for the parameters that move the total flux
     for (let b = 0; b < m; b++) {
-      const vre = fre[b]! * invTot;
-      const vim = fim[b]! * invTot;
-      const i = i0 + b;
-      re[i] = vre;
-      im[i] = vim;
-      const row = i * cols;
-      for (let j = 0; j < cols; j++) {
-        const dt = dtotal[j]!;
-        dre[row + j] = (dfr[j * BLOCK + b]! - vre * dt) * invTot;
-        dim[row + j] = (dfi[j * BLOCK + b]! - vim * dt) * invTot;
+      const vre = fre[b]!;
+      const vim = fim[b]!;
+      re[i0 + b] = vre;
+      im[i0 + b] = vim;
+      const row = row0 + b * cols;
+      for (let q = 0; q < nm; q++) {
+        const at = row + movingIdx[q]!;
+        dre[at] = dre[at]! - vre * dtn[q]!;
+        dim[at] = dim[at]! - vim * dtn[q]!;
       }
     }
   }
 }
 
 /** A term with at most one factor and no kernel coefficients, over the m points of a block. */
-function simpleTerm(t: JTerm, m: number, s: Scratch): void {
-  const { bu, bv, bu2, buv, bv2, bp, bg, bc, bs, tre, tim, fre, fim, dfr, dfi, kout } = s;
+function simpleTerm(
+  t: JTerm,
+  m: number,
+  s: Scratch,
+  exact: boolean,
+  dfr: Float64Array,
+  dfi: Float64Array,
+  row0: number,
+  cols: number,
+): void {
+  const { bu, bv, bu2, buv, bv2, bp, bg, bc, bs, tre, tim, fre, fim, kout } = s;
   const flux = t.flux;
   if (t.nf === 0) {
     for (let b = 0; b < m; b++) {
@@ -426,23 +459,19 @@ function simpleTerm(t: JTerm, m: number, s: Scratch): void {
             bp[b] = disk(x);
             bg[b] = -PI2 * flux * j2x2(x);
           } else {
-            // one J0 and one J1: P = 2 J1/x and J2/x^2 = (P - J0)/x^2 (A&S 9.1.27), little cancellation for
-            // x >= 2. Below 12 both come from the same unit-interval polynomials besselJ0 and besselJ1 use
-            // (piece k - 2 at t = x - k - 1/2), so J0 and J1 are theirs to the bit, for one piece lookup.
-            let jx0: number;
-            let jx1: number;
+            // P = 2 J1/x and J2/x^2 = W/8 (A&S 9.1.27) from the tables diskAmplitude uses below HANKEL_START
+            // (bessel-coefficients.ts), one piece index for both and no division; beyond, from J0 and J1.
             if (x < PIECES_END) {
-              const k = x | 0; // floor, 2 <= x < PIECES_END
-              const tt = x - k - 0.5;
-              jx0 = j0p(k - 2, tt);
-              jx1 = j1p(k - 2, tt);
+              const k = (x | 0) - 2; // floor - 2, 2 <= x < PIECES_END
+              const tt = x - k - 2.5;
+              bp[b] = diskP(k, tt);
+              bg[b] = -PI2 * 0.125 * flux * w2P(k, tt);
             } else {
-              jx0 = j0(x);
-              jx1 = j1(x);
+              const jx0 = j0(x);
+              const p = (2 * j1(x)) / x;
+              bp[b] = p;
+              bg[b] = (-PI2 * flux * (p - jx0)) / (x * x);
             }
-            const p = (2 * jx1) / x;
-            bp[b] = p;
-            bg[b] = (-PI2 * flux * (p - jx0)) / (x * x);
           }
         }
         break;
@@ -478,8 +507,13 @@ function simpleTerm(t: JTerm, m: number, s: Scratch): void {
   const e0 = t.e0;
   const n0 = t.n0;
   if (t.shifted) {
+    const eh = t.eh;
+    const el = t.el;
+    const nh = t.nh;
+    const nl = t.nl;
     for (let b = 0; b < m; b++) {
-      sinCos(bu[b]! * e0 + bv[b]! * n0);
+      if (exact) sinCosSplit(bu[b]!, bv[b]!, eh, el, nh, nl);
+      else sinCos(bu[b]! * e0 + bv[b]! * n0);
       const c = SC[1]!;
       const sn = -SC[0]!;
       const a = flux * bp[b]!;
@@ -506,42 +540,60 @@ function simpleTerm(t: JTerm, m: number, s: Scratch): void {
   const geometry = t.nf === 1;
   for (let q = 0; q < idx.length; q++) {
     const o = q * stride;
-    const base = idx[q]! * BLOCK;
+    const base = row0 + idx[q]!;
     const df = coef[o]!;
     const de = TWO_PI * coef[o + 1]!;
     const dn = TWO_PI * coef[o + 2]!;
     const d11 = geometry ? coef[o + 3]! : 0;
     const d12 = geometry ? coef[o + 4]! : 0;
     const d22 = geometry ? coef[o + 5]! : 0;
-    if (de === 0 && dn === 0 && d11 === 0 && d12 === 0 && d22 === 0) {
+    if (!t.shifted && de === 0 && dn === 0) {
+      // no phase ramp (cos 1, sin 0) and none made by this parameter: the derivative is real, Im is left alone
+      if (d11 === 0 && d12 === 0 && d22 === 0) {
+        for (let b = 0; b < m; b++) dfr[base + b * cols] = dfr[base + b * cols]! + df * bp[b]!;
+      } else {
+        for (let b = 0; b < m; b++) {
+          const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
+          dfr[base + b * cols] = dfr[base + b * cols]! + w;
+        }
+      }
+    } else if (de === 0 && dn === 0 && d11 === 0 && d12 === 0 && d22 === 0) {
       // a flux (weight) parameter: d flux * P, times the phase
       for (let b = 0; b < m; b++) {
         const w = df * bp[b]!;
-        dfr[base + b] = dfr[base + b]! + w * bc[b]!;
-        dfi[base + b] = dfi[base + b]! + w * bs[b]!;
+        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]!;
+        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]!;
       }
     } else if (de === 0 && dn === 0) {
       for (let b = 0; b < m; b++) {
         // d flux * P + flux dP/dr2 * dr2, times the phase
         const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
-        dfr[base + b] = dfr[base + b]! + w * bc[b]!;
-        dfi[base + b] = dfi[base + b]! + w * bs[b]!;
+        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]!;
+        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]!;
       }
     } else {
       for (let b = 0; b < m; b++) {
         const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
         // d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
         const ws = bu[b]! * de + bv[b]! * dn;
-        dfr[base + b] = dfr[base + b]! + w * bc[b]! + ws * tim[b]!;
-        dfi[base + b] = dfi[base + b]! + w * bs[b]! - ws * tre[b]!;
+        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]! + ws * tim[b]!;
+        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]! - ws * tre[b]!;
       }
     }
   }
 }
 
 /** A real term of any number of factors, with kernel coefficients, at block point b. */
-function realTerm(t: JTerm, b: number, s: Scratch): void {
-  const { kout, pv, gv, others, sv, fre, fim, dfr, dfi } = s;
+function realTerm(
+  t: JTerm,
+  b: number,
+  s: Scratch,
+  exact: boolean,
+  dfr: Float64Array,
+  dfi: Float64Array,
+  row: number,
+): void {
+  const { kout, pv, gv, others, sv, fre, fim } = s;
   const uu = s.bu[b]!;
   const vv = s.bv[b]!;
   const u2 = s.bu2[b]!;
@@ -588,7 +640,8 @@ function realTerm(t: JTerm, b: number, s: Scratch): void {
   let c = 1;
   let sn = 0;
   if (t.shifted) {
-    sinCos(uu * t.e0 + vv * t.n0);
+    if (exact) sinCosSplit(uu, vv, t.eh, t.el, t.nh, t.nl);
+    else sinCos(uu * t.e0 + vv * t.n0);
     c = SC[1]!;
     sn = -SC[0]!;
   }
@@ -609,7 +662,7 @@ function realTerm(t: JTerm, b: number, s: Scratch): void {
   const coef = t.coef;
   const stride = t.stride;
   for (let q = 0; q < na; q++) {
-    const at = idx[q]! * BLOCK + b;
+    const at = row + idx[q]!;
     const o = q * stride;
     // real-amplitude part: d flux * prod + sum over factors of flux * others * (G dr2 + dP/dp dp)
     let w = coef[o]! * prod;
@@ -633,8 +686,16 @@ function realTerm(t: JTerm, b: number, s: Scratch): void {
 }
 
 /** A term with a complex (non-radial) factor at block point b. */
-function complexTerm(t: JTerm, b: number, s: Scratch): void {
-  const { kout, pr, pi, or, oi, sv, fre, fim, dfr, dfi } = s;
+function complexTerm(
+  t: JTerm,
+  b: number,
+  s: Scratch,
+  exact: boolean,
+  dfr: Float64Array,
+  dfi: Float64Array,
+  row: number,
+): void {
+  const { kout, pr, pi, or, oi, sv, fre, fim } = s;
   const uu = s.bu[b]!;
   const vv = s.bv[b]!;
   const u2 = s.bu2[b]!;
@@ -675,7 +736,8 @@ function complexTerm(t: JTerm, b: number, s: Scratch): void {
   let c = 1;
   let sn = 0;
   if (t.shifted) {
-    sinCos(uu * t.e0 + vv * t.n0);
+    if (exact) sinCosSplit(uu, vv, t.eh, t.el, t.nh, t.nl);
+    else sinCos(uu * t.e0 + vv * t.n0);
     c = SC[1]!;
     sn = -SC[0]!;
   }
@@ -703,7 +765,7 @@ function complexTerm(t: JTerm, b: number, s: Scratch): void {
   const coef = t.coef;
   const stride = t.stride;
   for (let q = 0; q < na; q++) {
-    const at = idx[q]! * BLOCK + b;
+    const at = row + idx[q]!;
     const o = q * stride;
     let xr = coef[o]! * zr;
     let xi = coef[o]! * zi;
