@@ -15,6 +15,14 @@
  * @module
  */
 import { besselJ0, besselJ1, diskAmplitude, powerLawAmplitude } from './bessel.js';
+import {
+  DISK_PIECES,
+  HANKEL_START,
+  L3_PIECES,
+  L32_PIECES,
+  L52_PIECES,
+  W2_PIECES,
+} from './bessel-coefficients.js';
 import { powerLawOrderDerivative } from './bessel-jnu-order.js';
 import {
   annulusAmplitude,
@@ -24,6 +32,7 @@ import {
   quadraticLimbAmplitude,
 } from './components.js';
 import { j2OverX2, type RadialDerivativeKernel } from './derivatives.js';
+import { basisPiece } from './limb-pieces.js';
 
 /** A complex kernel with derivatives in w = A^T q and in its coefficients (layout in the module notes). */
 export type ComplexDerivativeKernel = (
@@ -84,7 +93,8 @@ export function l3(x: number): number {
  *
  * Notes: d/dx L_nu = -x L_{nu+1} / (2 (nu + 1)) (A&S 9.1.30) and dx/dr2 = pi^2 / (2x), so
  * dL_nu/dr2 = -pi^2 L_{nu+1} / (4 (nu + 1)): the slopes need L_2 = 8 J2/x^2, L_{5/2} and L_3. dP/dc_k is the
- * basis function itself.
+ * basis function itself. For 2 <= x < HANKEL_START all five come from their unit-interval tables
+ * (bessel-coefficients.ts, error of each below 7e-17), elsewhere from the closed forms and series.
  */
 export function limbDarkenedDerivatives(r2: number, p: Float64Array, out: Float64Array): void {
   const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
@@ -92,6 +102,22 @@ export function limbDarkenedDerivatives(r2: number, p: Float64Array, out: Float6
   const c32 = p[1]!;
   const quadratic = p.length > 2;
   const c2 = quadratic ? p[2]! : 0;
+  if (x >= 2 && x < HANKEL_START) {
+    // every basis function from its unit-interval table (bessel-coefficients.ts), one piece index for all
+    const k = (x | 0) - 2; // floor - 2
+    const t = x - k - 2.5;
+    const d = basisPiece(DISK_PIECES, k, t);
+    const l = basisPiece(L32_PIECES, k, t);
+    const w = basisPiece(W2_PIECES, k, t); // 8 J2/x^2
+    out[0] = c1 * d + c32 * l + c2 * w;
+    let sl = -PI2 * (c1 * 0.125 * w + (c32 * basisPiece(L52_PIECES, k, t)) / 10);
+    if (quadratic) sl -= (PI2 / 12) * c2 * basisPiece(L3_PIECES, k, t);
+    out[1] = sl;
+    out[2] = d;
+    out[3] = l;
+    if (quadratic) out[4] = w;
+    return;
+  }
   const j = j2OverX2(x);
   const l1 = diskAmplitude(x);
   const l32 = linearLimbAmplitude(x);

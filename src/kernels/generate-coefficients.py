@@ -21,7 +21,8 @@ Method (all arithmetic in mpmath at 50 significant digits):
 Fitted pieces:
   J0, J1, J2 on 0 <= x <= 2, as polynomials in s = x^2 with the value at 0 pinned:
       J0 = 1 + s B0(s),  J1 / x = 1/2 + s B1(s),  J2 / x^2 = 1/8 + s B2(s)
-  J0, J1, 2 J1 / x, 3 (sin x - x cos x) / x^3 and 8 J2 / x^2 on [n, n + 1] for n = 2 .. X0 - 1, as
+  J0, J1, 2 J1 / x, 3 (sin x - x cos x) / x^3, 8 J2 / x^2, L_{5/2} and 48 J3 / x^3 on [n, n + 1] for
+  n = 2 .. X0 - 1, as
   polynomials in t = x - (n + 1/2)
   J0, J1 on x >= X0 through the Hankel form
       J_n(x) = sqrt(2 / (pi x)) (P_n(x) cos w - Q_n(x) sin w),  w = x - (2 n + 1) pi / 4,
@@ -245,6 +246,10 @@ def main():
         ('L32_PIECES', 'l32Piece', '3 (sin x - x cos x) / x^3', lambda x: 3 * (mp.sin(x) - x * mp.cos(x)) / x**3,
          'basis'),
         ('W2_PIECES', 'w2Piece', '8 J2(x) / x^2', lambda x: 8 * mp.besselj(2, x) / x**2, 'basis'),
+        # and the two that their derivatives in x bring in (d/dx L_nu = -x L_{nu+1} / (2 (nu + 1)), A&S 9.1.30)
+        ('L52_PIECES', 'l52Piece', '15 ((3 - x^2) sin x - 3 x cos x) / x^5',
+         lambda x: 15 * ((3 - x**2) * mp.sin(x) - 3 * x * mp.cos(x)) / x**5, 'basis'),
+        ('L3_PIECES', 'l3Piece', '48 J3(x) / x^3', lambda x: 48 * mp.besselj(3, x) / x**3, 'basis'),
     )
     degree_of = {}
     for name, fn, what, f, group in pieces:
@@ -265,7 +270,7 @@ def main():
         exported = 'export ' if group == 'basis' else ''
         out.append(f'{exported}const {name} = new Float64Array([\n  {fmt(table)},\n]);\n')
         out.append(poly_table_fn(fn, f'{what} on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).', name, deg + 1))
-    out.append(f'/** Coefficients per piece of DISK_PIECES, L32_PIECES and W2_PIECES. */\n'
+    out.append(f'/** Coefficients per piece of DISK_PIECES, L32_PIECES, W2_PIECES, L52_PIECES and L3_PIECES. */\n'
                f'export const BASIS_STRIDE = {basis_degree + 1};\n')
 
     # --- Hankel form on x >= X0, polynomials in t = X0^2 / x^2 --------------------------------

@@ -288,13 +288,10 @@ const BLOCK = 128;
 /** Per-run scratch (allocated once per call, never per point). */
 interface Scratch {
   readonly kout: Float64Array;
-  readonly pv: Float64Array;
-  readonly gv: Float64Array;
   readonly pr: Float64Array;
   readonly pi: Float64Array;
   readonly or: Float64Array;
   readonly oi: Float64Array;
-  readonly others: Float64Array;
   readonly sv: Float64Array;
   /** Per block point: u, v, u^2, 2uv, v^2. */
   readonly bu: Float64Array;
@@ -309,6 +306,14 @@ interface Scratch {
   readonly bs: Float64Array;
   readonly tre: Float64Array;
   readonly tim: Float64Array;
+  /** Per factor and block point ([f * BLOCK + point]): P, dP/dr2, flux times the other factors' product. */
+  readonly fp: Float64Array;
+  readonly fg: Float64Array;
+  readonly fo: Float64Array;
+  /** Per kernel slope and block point ([(slopeOff + r) * BLOCK + point]): dP/dp_r. */
+  readonly fs: Float64Array;
+  /** Per block point: the real amplitude part of one parameter's derivative. */
+  readonly bw: Float64Array;
   /** Per block point: F (unnormalised). */
   readonly fre: Float64Array;
   readonly fim: Float64Array;
@@ -319,13 +324,10 @@ function scratchFor(plan: JPlan): Scratch {
   const b = () => new Float64Array(BLOCK);
   return {
     kout: new Float64Array(plan.maxOut),
-    pv: new Float64Array(nf),
-    gv: new Float64Array(nf),
     pr: new Float64Array(nf),
     pi: new Float64Array(nf),
     or: new Float64Array(nf),
     oi: new Float64Array(nf),
-    others: new Float64Array(nf),
     sv: new Float64Array(Math.max(1, plan.maxSlopes)),
     bu: b(),
     bv: b(),
@@ -338,6 +340,11 @@ function scratchFor(plan: JPlan): Scratch {
     bs: b(),
     tre: b(),
     tim: b(),
+    fp: new Float64Array(nf * BLOCK),
+    fg: new Float64Array(nf * BLOCK),
+    fo: new Float64Array(nf * BLOCK),
+    fs: new Float64Array(Math.max(1, plan.maxSlopes) * BLOCK),
+    bw: b(),
     fre: b(),
     fim: b(),
   };
@@ -409,7 +416,7 @@ export function runJacobian(
       const exact = phaseNeedsSplit(uMax, vMax, t.e0, t.n0);
       if (t.complex) for (let b = 0; b < m; b++) complexTerm(t, b, s, exact, dre, dim, row0 + b * cols);
       else if (t.nf <= 1 && !t.coefficients) simpleTerm(t, m, s, exact, dre, dim, row0, cols);
-      else for (let b = 0; b < m; b++) realTerm(t, b, s, exact, dre, dim, row0 + b * cols);
+      else blockTerm(t, m, s, exact, dre, dim, row0, cols);
     }
     // the terms added V = F / T and dF / T (their fluxes are divided by T, compileJacobianPlan); what is
     // left of dV = (dF - V dT) / T is -V dT / T for the parameters that move the total flux
@@ -583,105 +590,170 @@ function simpleTerm(
   }
 }
 
-/** A real term of any number of factors, with kernel coefficients, at block point b. */
-function realTerm(
+/**
+ * A real term of any number of radial factors (with or without kernel coefficients), over the m points of a
+ * block: one loop per factor for its kernel values and slopes, one for the phase, then per free parameter that
+ * moves the term a few loops over the factors it moves (the others are skipped).
+ */
+function blockTerm(
   t: JTerm,
-  b: number,
+  m: number,
   s: Scratch,
   exact: boolean,
   dfr: Float64Array,
   dfi: Float64Array,
-  row: number,
+  row0: number,
+  cols: number,
 ): void {
-  const { kout, pv, gv, others, sv, fre, fim } = s;
-  const uu = s.bu[b]!;
-  const vv = s.bv[b]!;
-  const u2 = s.bu2[b]!;
-  const uv2 = s.buv[b]!;
-  const v2 = s.bv2[b]!;
+  const { bu, bv, bu2, buv, bv2, bp, bc, bs, tre, tim, fre, fim, kout, fp, fg, fo, fs, bw } = s;
   const nf = t.nf;
-  const m = t.m;
-  let prod = 1;
+  const M = t.m;
+  const flux = t.flux;
+  for (let b = 0; b < m; b++) bp[b] = 1;
   for (let f = 0; f < nf; f++) {
-    const r2raw = m[3 * f]! * u2 + m[3 * f + 1]! * uv2 + m[3 * f + 2]! * v2;
-    const r2 = r2raw > 0 ? r2raw : 0;
-    let p: number;
-    let g: number;
+    const m11 = M[3 * f]!;
+    const m12 = M[3 * f + 1]!;
+    const m22 = M[3 * f + 2]!;
+    const po = f * BLOCK;
     switch (t.codes[f]) {
-      case CODE_DISK: {
-        const x = Math.PI * Math.sqrt(r2);
-        p = disk(x);
-        g = -PI2 * j2x2(x);
+      case CODE_DISK:
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
+          let p: number;
+          let g: number;
+          if (x >= 2 && x < PIECES_END) {
+            const k = (x | 0) - 2; // floor - 2
+            const tt = x - k - 2.5;
+            p = diskP(k, tt);
+            g = -PI2 * 0.125 * w2P(k, tt); // -pi^2 J2(x)/x^2, W = 8 J2/x^2
+          } else {
+            p = disk(x);
+            g = -PI2 * j2x2(x);
+          }
+          fp[po + b] = p;
+          fg[po + b] = g;
+          bp[b] = bp[b]! * p;
+        }
         break;
-      }
       case CODE_GAUSS:
-        p = Math.exp(-GK * r2);
-        g = -GK * p;
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const p = Math.exp(-GK * (r2 > 0 ? r2 : 0));
+          fp[po + b] = p;
+          fg[po + b] = -GK * p;
+          bp[b] = bp[b]! * p;
+        }
         break;
-      case CODE_RING: {
-        const x = Math.PI * Math.sqrt(r2);
-        p = j0(x);
-        g = -(PI2 / 4) * disk(x);
+      case CODE_RING:
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
+          const p = j0(x);
+          fp[po + b] = p;
+          fg[po + b] = -(PI2 / 4) * disk(x);
+          bp[b] = bp[b]! * p;
+        }
         break;
-      }
       default: {
+        const kernel = t.radialKernels[f]!;
         const pk = t.p[f]!;
-        t.radialKernels[f]!(r2, pk, kout, t.data[f]);
-        p = kout[0]!;
-        g = kout[1]!;
-        const off = t.slopeOff[f]!;
-        for (let q = 0; q < pk.length; q++) sv[off + q] = kout[2 + q]!;
+        const np = pk.length;
+        const data = t.data[f];
+        const so = t.slopeOff[f]! * BLOCK;
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          kernel(r2 > 0 ? r2 : 0, pk, kout, data);
+          const p = kout[0]!;
+          fp[po + b] = p;
+          fg[po + b] = kout[1]!;
+          for (let r = 0; r < np; r++) fs[so + r * BLOCK + b] = kout[2 + r]!;
+          bp[b] = bp[b]! * p;
+        }
       }
     }
-    pv[f] = p;
-    gv[f] = g;
-    prod *= p;
   }
-  let c = 1;
-  let sn = 0;
   if (t.shifted) {
-    if (exact) sinCosSplit(uu, vv, t.eh, t.el, t.nh, t.nl);
-    else sinCos(uu * t.e0 + vv * t.n0);
-    c = SC[1]!;
-    sn = -SC[0]!;
+    const e0 = t.e0;
+    const n0 = t.n0;
+    for (let b = 0; b < m; b++) {
+      if (exact) sinCosSplit(bu[b]!, bv[b]!, t.eh, t.el, t.nh, t.nl);
+      else sinCos(bu[b]! * e0 + bv[b]! * n0);
+      const c = SC[1]!;
+      const sn = -SC[0]!;
+      const a = flux * bp[b]!;
+      bc[b] = c;
+      bs[b] = sn;
+      tre[b] = a * c;
+      tim[b] = a * sn;
+      fre[b] = fre[b]! + a * c;
+      fim[b] = fim[b]! + a * sn;
+    }
+  } else {
+    for (let b = 0; b < m; b++) {
+      const a = flux * bp[b]!;
+      bc[b] = 1;
+      bs[b] = 0;
+      tre[b] = a;
+      tim[b] = 0;
+      fre[b] = fre[b]! + a;
+    }
   }
-  const flux = t.flux;
-  const tre = flux * prod * c;
-  const tim = flux * prod * sn;
-  fre[b] = fre[b]! + tre;
-  fim[b] = fim[b]! + tim;
   const idx = t.idx;
   const na = idx.length;
   if (na === 0) return;
   // flux * (product of the other factors), per factor
   for (let f = 0; f < nf; f++) {
-    let o = flux;
-    for (let h = 0; h < nf; h++) if (h !== f) o *= pv[h]!;
-    others[f] = o;
+    const po = f * BLOCK;
+    for (let b = 0; b < m; b++) {
+      let o = flux;
+      for (let h = 0; h < nf; h++) if (h !== f) o *= fp[h * BLOCK + b]!;
+      fo[po + b] = o;
+    }
   }
   const coef = t.coef;
   const stride = t.stride;
   for (let q = 0; q < na; q++) {
-    const at = row + idx[q]!;
     const o = q * stride;
+    const base = row0 + idx[q]!;
+    const df = coef[o]!;
+    const de = TWO_PI * coef[o + 1]!;
+    const dn = TWO_PI * coef[o + 2]!;
     // real-amplitude part: d flux * prod + sum over factors of flux * others * (G dr2 + dP/dp dp)
-    let w = coef[o]! * prod;
+    for (let b = 0; b < m; b++) bw[b] = df * bp[b]!;
     for (let f = 0; f < nf; f++) {
       const go = o + t.geoOff[f]!;
-      const dr2 = coef[go]! * u2 + coef[go + 1]! * uv2 + coef[go + 2]! * v2;
-      let d = gv[f]! * dr2;
-      const np = t.p[f]!.length;
-      if (np > 0) {
-        const co = o + t.coefOff[f]!;
-        const so = t.slopeOff[f]!;
-        for (let r = 0; r < np; r++) d += sv[so + r]! * coef[co + r]!;
+      const d11 = coef[go]!;
+      const d12 = coef[go + 1]!;
+      const d22 = coef[go + 2]!;
+      const po = f * BLOCK;
+      if (d11 !== 0 || d12 !== 0 || d22 !== 0) {
+        for (let b = 0; b < m; b++) {
+          const dr2 = d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!;
+          bw[b] = bw[b]! + fo[po + b]! * fg[po + b]! * dr2;
+        }
       }
-      w += others[f]! * d;
+      const np = t.p[f]!.length;
+      const co = o + t.coefOff[f]!;
+      const so = t.slopeOff[f]! * BLOCK;
+      for (let r = 0; r < np; r++) {
+        const dc = coef[co + r]!;
+        if (dc === 0) continue;
+        const sr = so + r * BLOCK;
+        for (let b = 0; b < m; b++) bw[b] = bw[b]! + fo[po + b]! * fs[sr + b]! * dc;
+      }
     }
-    // phase part: d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
-    const ws = TWO_PI * (uu * coef[o + 1]! + vv * coef[o + 2]!);
-    dfr[at] = dfr[at]! + w * c + ws * tim;
-    dfi[at] = dfi[at]! + w * sn - ws * tre;
+    if (!t.shifted && de === 0 && dn === 0) {
+      for (let b = 0; b < m; b++) dfr[base + b * cols] = dfr[base + b * cols]! + bw[b]!;
+    } else {
+      for (let b = 0; b < m; b++) {
+        // phase part: d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
+        const w = bw[b]!;
+        const ws = bu[b]! * de + bv[b]! * dn;
+        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]! + ws * tim[b]!;
+        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]! - ws * tre[b]!;
+      }
+    }
   }
 }
 
