@@ -104,14 +104,23 @@ export function phaseNeedsSplit(uMax: number, vMax: number, e: number, n: number
  * @param x - a column
  * @param start - first index
  * @param end - one past the last index
+ *
+ * Notes: four independent Math.max chains (branch-free; Math.max passes NaN on).
  */
 export function maxAbs(x: Float64Array, start: number, end: number): number {
-  let m = 0;
-  for (let i = start; i < end; i++) {
-    const a = Math.abs(x[i]!);
-    if (!(a <= m)) m = a;
+  let m0 = 0;
+  let m1 = 0;
+  let m2 = 0;
+  let m3 = 0;
+  let i = start;
+  for (; i + 3 < end; i += 4) {
+    m0 = Math.max(m0, Math.abs(x[i]!));
+    m1 = Math.max(m1, Math.abs(x[i + 1]!));
+    m2 = Math.max(m2, Math.abs(x[i + 2]!));
+    m3 = Math.max(m3, Math.abs(x[i + 3]!));
   }
-  return m;
+  for (; i < end; i++) m0 = Math.max(m0, Math.abs(x[i]!));
+  return Math.max(m0, m1, m2, m3);
 }
 
 /** 2^27 + 1: Veltkamp's constant that splits a binary64 number into two halves of 26 bits. */
