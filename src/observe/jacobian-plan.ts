@@ -306,11 +306,14 @@ interface Scratch {
   readonly bs: Float64Array;
   readonly tre: Float64Array;
   readonly tim: Float64Array;
-  /** Per factor and block point ([f * BLOCK + point]): P, dP/dr2, flux times the other factors' product. */
+  /**
+   * Per factor and block point ([f * BLOCK + point]): P, dP/dr2 (times fo once the values are in), and fo,
+   * the flux times the other factors' product.
+   */
   readonly fp: Float64Array;
   readonly fg: Float64Array;
   readonly fo: Float64Array;
-  /** Per kernel slope and block point ([(slopeOff + r) * BLOCK + point]): dP/dp_r. */
+  /** Per kernel slope and block point ([(slopeOff + r) * BLOCK + point]): dP/dp_r (times fo, as fg). */
   readonly fs: Float64Array;
   /** Per block point: the real amplitude part of one parameter's derivative. */
   readonly bw: Float64Array;
@@ -702,13 +705,32 @@ function blockTerm(
   const idx = t.idx;
   const na = idx.length;
   if (na === 0) return;
-  // flux * (product of the other factors), per factor
+  // flux * (product of the other factors), per factor; then folded into that factor's dP/dr2 and slopes, so
+  // that each parameter's loops below need one multiplication less
+  if (nf === 1) fo.fill(flux, 0, m);
+  else if (nf === 2) {
+    for (let b = 0; b < m; b++) {
+      fo[b] = flux * fp[BLOCK + b]!;
+      fo[BLOCK + b] = flux * fp[b]!;
+    }
+  } else {
+    for (let f = 0; f < nf; f++) {
+      const po = f * BLOCK;
+      for (let b = 0; b < m; b++) {
+        let o = flux;
+        for (let h = 0; h < nf; h++) if (h !== f) o *= fp[h * BLOCK + b]!;
+        fo[po + b] = o;
+      }
+    }
+  }
   for (let f = 0; f < nf; f++) {
     const po = f * BLOCK;
-    for (let b = 0; b < m; b++) {
-      let o = flux;
-      for (let h = 0; h < nf; h++) if (h !== f) o *= fp[h * BLOCK + b]!;
-      fo[po + b] = o;
+    for (let b = 0; b < m; b++) fg[po + b] = fg[po + b]! * fo[po + b]!;
+    const so = t.slopeOff[f]! * BLOCK;
+    const np = t.p[f]!.length;
+    for (let r = 0; r < np; r++) {
+      const sr = so + r * BLOCK;
+      for (let b = 0; b < m; b++) fs[sr + b] = fs[sr + b]! * fo[po + b]!;
     }
   }
   const coef = t.coef;
@@ -730,7 +752,7 @@ function blockTerm(
       if (d11 !== 0 || d12 !== 0 || d22 !== 0) {
         for (let b = 0; b < m; b++) {
           const dr2 = d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!;
-          bw[b] = bw[b]! + fo[po + b]! * fg[po + b]! * dr2;
+          bw[b] = bw[b]! + fg[po + b]! * dr2;
         }
       }
       const np = t.p[f]!.length;
@@ -740,7 +762,7 @@ function blockTerm(
         const dc = coef[co + r]!;
         if (dc === 0) continue;
         const sr = so + r * BLOCK;
-        for (let b = 0; b < m; b++) bw[b] = bw[b]! + fo[po + b]! * fs[sr + b]! * dc;
+        for (let b = 0; b < m; b++) bw[b] = bw[b]! + fs[sr + b]! * dc;
       }
     }
     if (!t.shifted && de === 0 && dn === 0) {
