@@ -184,39 +184,89 @@ function column(
 }
 
 interface Samples {
-  /** Per sub-sample: the point it belongs to, its wavelength and its weight (weights of a point sum to 1). */
+  /**
+   * Per sub-sample: the point it belongs to, its wavelength and its weight (weights of a point sum to 1). The
+   * sub-samples are ordered by group: group g holds start[g] .. start[g + 1] - 1, all at wavelength lam[g], with
+   * their points in increasing order.
+   */
   readonly point: Int32Array;
   readonly lambda: Float64Array;
   readonly weight: Float64Array;
+  readonly start: Int32Array;
+  readonly lam: Float64Array;
 }
 
+/**
+ * The sub-samples of every point, grouped by wavelength: points of one channel (same wavelength and width)
+ * share their sub-sample wavelengths, so a channel's sub-sample j is one group, found by two look-ups per point
+ * (not per sub-sample). Two channels may share a sub-sample wavelength; they then make two groups that use one
+ * cached plan.
+ */
 function subSamples(wavelength: Float64Array, band: Float64Array, samples: number): Samples {
   const n = wavelength.length;
   const gl = gaussLegendre(samples);
-  let count = 0;
-  for (let i = 0; i < n; i++) count += band[i]! > 0 ? samples : 1;
+  // channels, and the groups they open
+  const channels = new Map<number, Map<number, number>>();
+  const channelOf = new Int32Array(n);
+  const groupBase: number[] = [];
+  const slots: number[] = [];
+  let groups = 0;
+  for (let i = 0; i < n; i++) {
+    const l = wavelength[i]!;
+    const b = band[i]!;
+    let byBand = channels.get(l);
+    if (byBand === undefined) {
+      byBand = new Map();
+      channels.set(l, byBand);
+    }
+    let c = byBand.get(b);
+    if (c === undefined) {
+      c = groupBase.length;
+      byBand.set(b, c);
+      groupBase.push(groups);
+      const m = b > 0 ? samples : 1;
+      slots.push(m);
+      groups += m;
+    }
+    channelOf[i] = c;
+  }
+  const size = new Int32Array(groups);
+  const lam = new Float64Array(groups);
+  for (let i = 0; i < n; i++) {
+    const c = channelOf[i]!;
+    const g0 = groupBase[c]!;
+    const m = slots[c]!;
+    for (let s = 0; s < m; s++) size[g0 + s]!++;
+  }
+  const start = new Int32Array(groups + 1);
+  for (let g = 0; g < groups; g++) start[g + 1] = start[g]! + size[g]!;
+  const count = start[groups]!;
+  const next = start.slice(0, groups);
   const point = new Int32Array(count);
   const lambda = new Float64Array(count);
   const weight = new Float64Array(count);
-  let k = 0;
   for (let i = 0; i < n; i++) {
+    const c = channelOf[i]!;
+    const g0 = groupBase[c]!;
     const l = wavelength[i]!;
     const b = band[i]!;
     if (b > 0) {
       for (let s = 0; s < samples; s++) {
+        const k = next[g0 + s]!++;
         point[k] = i;
         lambda[k] = l + 0.5 * b * gl.x[s]!;
         weight[k] = 0.5 * gl.w[s]!;
-        k++;
+        lam[g0 + s] = lambda[k]!;
       }
     } else {
+      const k = next[g0]!++;
       point[k] = i;
       lambda[k] = l;
       weight[k] = 1;
-      k++;
+      lam[g0] = l;
     }
   }
-  return { point, lambda, weight };
+  return { point, lambda, weight, start, lam };
 }
 
 /** V at every sub-sample: baselines (metres) of the point, divided by the sub-sample's wavelength. */
@@ -228,43 +278,35 @@ function visAtSamples(
   fn: string,
 ): { re: Float64Array; im: Float64Array } {
   const count = s.lambda.length;
-  const groups = new Map<number, number[]>();
-  for (let k = 0; k < count; k++) {
-    const l = s.lambda[k]!;
+  const groups = s.lam.length;
+  const u = new Float64Array(count);
+  const v = new Float64Array(count);
+  const re = new Float64Array(count);
+  const im = new Float64Array(count);
+  // per group: its frequencies gathered into one slice, one runPlan straight into the outputs' slice
+  for (let g = 0; g < groups; g++) {
+    const a = s.start[g]!;
+    const b = s.start[g + 1]!;
+    const l = s.lam[g]!;
     if (!(l > 0)) {
       throw new InputError(
         `${fn}: a channel reaches a wavelength of ${l} m; the band must be smaller than twice the wavelength`,
-        {
-          argument: 'band',
-          index: s.point[k]!,
-        },
+        { argument: 'band', index: s.point[a]! },
       );
     }
-    let g = groups.get(l);
-    if (g === undefined) {
-      g = [];
-      groups.set(l, g);
-    }
-    g.push(k);
-  }
-  const re = new Float64Array(count);
-  const im = new Float64Array(count);
-  for (const [l, idx] of groups) {
-    const m = idx.length;
-    const u = new Float64Array(m);
-    const v = new Float64Array(m);
-    for (let j = 0; j < m; j++) {
-      const p = s.point[idx[j]!]!;
+    for (let j = a; j < b; j++) {
+      const p = s.point[j]!;
       u[j] = be[p]! / l;
       v[j] = bn[p]! / l;
     }
-    const r = new Float64Array(m);
-    const i = new Float64Array(m);
-    runPlan(chromaticPlan(model, l), u, v, r, i, m);
-    for (let j = 0; j < m; j++) {
-      re[idx[j]!] = r[j]!;
-      im[idx[j]!] = i[j]!;
-    }
+    runPlan(
+      chromaticPlan(model, l),
+      u.subarray(a, b),
+      v.subarray(a, b),
+      re.subarray(a, b),
+      im.subarray(a, b),
+      b - a,
+    );
   }
   return { re, im };
 }
