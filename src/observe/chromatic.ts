@@ -183,7 +183,8 @@ function column(
   return a;
 }
 
-interface Samples {
+/** @internal Sub-samples of channels (see {@link channelSamples}). */
+export interface Samples {
   /**
    * Per sub-sample: the point it belongs to, its wavelength and its weight (weights of a point sum to 1). The
    * sub-samples are ordered by group: group g holds start[g] .. start[g + 1] - 1, all at wavelength lam[g], with
@@ -197,12 +198,25 @@ interface Samples {
 }
 
 /**
- * The sub-samples of every point, grouped by wavelength: points of one channel (same wavelength and width)
+ * @internal The Gauss-Legendre sub-samples of every point's channel, grouped by wavelength: points of one channel (same wavelength and width)
  * share their sub-sample wavelengths, so a channel's sub-sample j is one group, found by two look-ups per point
  * (not per sub-sample). Two channels may share a sub-sample wavelength; they then make two groups that use one
  * cached plan.
+ *
+ * @param wavelength - per point, the channel's wavelength (m)
+ * @param band - per point, the channel's width (m; 0 for no averaging), or null for none
+ * @param samples - Gauss-Legendre nodes per channel of non-zero width
+ * @param fn - the calling function, for the message
+ * @param bandName - the band column's name, for the message
+ * @throws InputError when a channel reaches a wavelength <= 0 (its width is not below twice its wavelength)
  */
-function subSamples(wavelength: Float64Array, band: Float64Array, samples: number): Samples {
+export function channelSamples(
+  wavelength: Float64Array,
+  band: Float64Array | null,
+  samples: number,
+  fn: string,
+  bandName: string,
+): Samples {
   const n = wavelength.length;
   const gl = gaussLegendre(samples);
   // channels, and the groups they open
@@ -213,7 +227,7 @@ function subSamples(wavelength: Float64Array, band: Float64Array, samples: numbe
   let groups = 0;
   for (let i = 0; i < n; i++) {
     const l = wavelength[i]!;
-    const b = band[i]!;
+    const b = band === null ? 0 : band[i]!;
     let byBand = channels.get(l);
     if (byBand === undefined) {
       byBand = new Map();
@@ -249,12 +263,19 @@ function subSamples(wavelength: Float64Array, band: Float64Array, samples: numbe
     const c = channelOf[i]!;
     const g0 = groupBase[c]!;
     const l = wavelength[i]!;
-    const b = band[i]!;
+    const b = band === null ? 0 : band[i]!;
     if (b > 0) {
       for (let s = 0; s < samples; s++) {
+        const ls = l + 0.5 * b * gl.x[s]!;
+        if (!(ls > 0)) {
+          throw new InputError(
+            `${fn}: ${bandName}[${i}] = ${b} m reaches a wavelength of ${ls} m; the band must be smaller than twice the wavelength (${l} m)`,
+            { argument: 'band', index: i },
+          );
+        }
         const k = next[g0 + s]!++;
         point[k] = i;
-        lambda[k] = l + 0.5 * b * gl.x[s]!;
+        lambda[k] = ls;
         weight[k] = 0.5 * gl.w[s]!;
         lam[g0 + s] = lambda[k]!;
       }
@@ -275,7 +296,6 @@ function visAtSamples(
   be: Float64Array,
   bn: Float64Array,
   s: Samples,
-  fn: string,
 ): { re: Float64Array; im: Float64Array } {
   const count = s.lambda.length;
   const groups = s.lam.length;
@@ -288,12 +308,6 @@ function visAtSamples(
     const a = s.start[g]!;
     const b = s.start[g + 1]!;
     const l = s.lam[g]!;
-    if (!(l > 0)) {
-      throw new InputError(
-        `${fn}: a channel reaches a wavelength of ${l} m; the band must be smaller than twice the wavelength`,
-        { argument: 'band', index: s.point[a]! },
-      );
-    }
     for (let j = a; j < b; j++) {
       const p = s.point[j]!;
       u[j] = be[p]! / l;
@@ -361,8 +375,8 @@ export function chromaticVisibilities(
 ): ComplexColumns {
   const fn = 'chromaticVisibilities';
   const { n, be, bn, wl, band } = pointColumns(points, fn);
-  const s = subSamples(wl, band, readSamples(options, fn));
-  const vk = visAtSamples(model, be, bn, s, fn);
+  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band');
+  const vk = visAtSamples(model, be, bn, s);
   const re = new Float64Array(n);
   const im = new Float64Array(n);
   for (let k = 0; k < s.lambda.length; k++) {
@@ -393,8 +407,8 @@ export function chromaticVis2(
 ): Float64Array {
   const fn = 'chromaticVis2';
   const { n, be, bn, wl, band } = pointColumns(points, fn);
-  const s = subSamples(wl, band, readSamples(options, fn));
-  const vk = visAtSamples(model, be, bn, s, fn);
+  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band');
+  const vk = visAtSamples(model, be, bn, s);
   const out = new Float64Array(n);
   for (let k = 0; k < s.lambda.length; k++) {
     const p = s.point[k]!;
@@ -435,16 +449,16 @@ export function chromaticBispectrum(
   const d = column(triangles.v2coord, 'v2coord', n, fn);
   const wl = column(triangles.wavelength, 'wavelength', n, fn, true);
   const band = column(triangles.band, 'band', n, fn);
-  const s = subSamples(wl, band, readSamples(options, fn));
+  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band');
   const e3 = new Float64Array(n);
   const n3 = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     e3[i] = -(a[i]! + c[i]!);
     n3[i] = -(b[i]! + d[i]!);
   }
-  const v1 = visAtSamples(model, a, b, s, fn);
-  const v2 = visAtSamples(model, c, d, s, fn);
-  const v3 = visAtSamples(model, e3, n3, s, fn);
+  const v1 = visAtSamples(model, a, b, s);
+  const v2 = visAtSamples(model, c, d, s);
+  const v3 = visAtSamples(model, e3, n3, s);
   const re = new Float64Array(n);
   const im = new Float64Array(n);
   for (let k = 0; k < s.lambda.length; k++) {

@@ -23,11 +23,11 @@ import type { Model } from '../model/model.js';
 import { DEG_PER_RAD, frequencyColumn } from '../units/index.js';
 import {
   type ChromaticOptions,
+  channelSamples,
   chromaticBispectrum,
   chromaticVis2,
   chromaticVisibilities,
   DEFAULT_BAND_SAMPLES,
-  gaussLegendre,
 } from './chromatic.js';
 import { compileJacobianPlan, type JPlan, runJacobian } from './jacobian-plan.js';
 import { parameterVector } from './parameters.js';
@@ -464,51 +464,6 @@ function accumulateBispectrum(
   }
 }
 
-/** Sub-samples of the points: per sample its row, wavelength and weight (weights of a row sum to 1). */
-interface Samples {
-  readonly row: Int32Array;
-  readonly lambda: Float64Array;
-  readonly weight: Float64Array;
-}
-
-function subSamples(req: Request, samples: number, fn: string): Samples {
-  const n = req.n;
-  const wl = req.wavelength!;
-  const band = req.band;
-  const gl = gaussLegendre(samples);
-  let count = 0;
-  for (let i = 0; i < n; i++) count += band !== null && band[i]! > 0 ? samples : 1;
-  const row = new Int32Array(count);
-  const lambda = new Float64Array(count);
-  const weight = new Float64Array(count);
-  let k = 0;
-  for (let i = 0; i < n; i++) {
-    const l = wl[i]!;
-    const b = band === null ? 0 : band[i]!;
-    if (b > 0) {
-      for (let s = 0; s < samples; s++) {
-        const ls = l + 0.5 * b * gl.x[s]!;
-        if (!(ls > 0)) {
-          throw new InputError(
-            `${fn}: points.band[${i}] = ${b} m reaches a wavelength of ${ls} m; the band must be smaller than twice the wavelength (${l} m)`,
-            { argument: 'band', index: i },
-          );
-        }
-        row[k] = i;
-        lambda[k] = ls;
-        weight[k] = 0.5 * gl.w[s]!;
-        k++;
-      }
-    } else {
-      row[k] = i;
-      lambda[k] = l;
-      weight[k] = 1;
-      k++;
-    }
-  }
-  return { row, lambda, weight };
-}
-
 /** Samples evaluated per runJacobian call (bounds the scratch to CHUNK x 3 x cols doubles per column). */
 const CHUNK = 2048;
 
@@ -527,19 +482,9 @@ function sampledJacobian(
   const n = req.n;
   const nb = req.nb;
   const cols = vec.length;
-  const s = subSamples(req, samples, fn);
+  const s = channelSamples(req.wavelength!, req.band, samples, fn, 'points.band');
   const chromatic = hasChromaticSlot(model.node);
-  // groups of samples that share a plan: one per distinct wavelength, or one in all for an achromatic model
-  const groups = new Map<number, number[]>();
-  for (let k = 0; k < s.lambda.length; k++) {
-    const key = chromatic ? s.lambda[k]! : 0;
-    let g = groups.get(key);
-    if (g === undefined) {
-      g = [];
-      groups.set(key, g);
-    }
-    g.push(k);
-  }
+  // the sub-samples come grouped by wavelength (one plan each for a chromatic model, one for all otherwise)
   const ar = new Float64Array(n);
   const ai = new Float64Array(n);
   const dar = new Float64Array(n * cols);
@@ -555,13 +500,15 @@ function sampledJacobian(
   const rows = new Int32Array(width);
   const weights = new Float64Array(width);
   const achromaticPlan = chromatic ? null : prepare(model, vec);
-  for (const [key, idx] of groups) {
-    const plan = achromaticPlan ?? prepare(model, vec, key);
-    for (let start = 0; start < idx.length; start += width) {
-      const m = Math.min(width, idx.length - start);
+  for (let g = 0; g < s.lam.length; g++) {
+    const plan = achromaticPlan ?? prepare(model, vec, s.lam[g]!);
+    const g0 = s.start[g]!;
+    const size = s.start[g + 1]! - g0;
+    for (let start = 0; start < size; start += width) {
+      const m = Math.min(width, size - start);
       for (let k = 0; k < m; k++) {
-        const smp = idx[start + k]!;
-        const r = s.row[smp]!;
+        const smp = g0 + start + k;
+        const r = s.point[smp]!;
         rows[k] = r;
         weights[k] = s.weight[smp]!;
         const scale = req.wavelength![r]! / s.lambda[smp]!;
