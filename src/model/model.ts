@@ -678,28 +678,42 @@ export class Model {
     const n = sameLength(fn, ['u1', 'v1', 'u2', 'v2'], [a, b, c, d]);
     const re = out ? checkOut(fn, out.re, n, 'out.re') : new Float64Array(n);
     const im = out ? checkOut(fn, out.im, n, 'out.im') : new Float64Array(n);
-    const u3 = new Float64Array(n);
-    const v3 = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      u3[i] = -(a[i]! + c[i]!);
-      v3[i] = -(b[i]! + d[i]!);
-    }
+    // in chunks that stay in the cache: each chunk's three baselines are copied into small columns, evaluated,
+    // and multiplied into the outputs (every input entry is read before the output entry of the same index is
+    // written, so outputs may alias inputs)
     const plan = this.plan();
-    const r1 = new Float64Array(n);
-    const i1 = new Float64Array(n);
-    const r2 = new Float64Array(n);
-    const i2 = new Float64Array(n);
-    runPlan(plan, a, b, r1, i1, n);
-    runPlan(plan, c, d, r2, i2, n);
-    // the third baseline's visibility goes into u3, v3's own buffers once they are read
-    const r3 = new Float64Array(n);
-    const i3 = new Float64Array(n);
-    runPlan(plan, u3, v3, r3, i3, n);
-    for (let i = 0; i < n; i++) {
-      const xr = r1[i]! * r2[i]! - i1[i]! * i2[i]!;
-      const xi = r1[i]! * i2[i]! + i1[i]! * r2[i]!;
-      re[i] = xr * r3[i]! - xi * i3[i]!;
-      im[i] = xr * i3[i]! + xi * r3[i]!;
+    const chunk = Math.min(n, BISPECTRUM_CHUNK);
+    const cu = new Float64Array(chunk);
+    const cv = new Float64Array(chunk);
+    const r1 = new Float64Array(chunk);
+    const i1 = new Float64Array(chunk);
+    const r2 = new Float64Array(chunk);
+    const i2 = new Float64Array(chunk);
+    const r3 = new Float64Array(chunk);
+    const i3 = new Float64Array(chunk);
+    for (let i0 = 0; i0 < n; i0 += chunk) {
+      const m = Math.min(chunk, n - i0);
+      for (let j = 0; j < m; j++) {
+        cu[j] = a[i0 + j]!;
+        cv[j] = b[i0 + j]!;
+      }
+      runPlan(plan, cu, cv, r1, i1, m);
+      for (let j = 0; j < m; j++) {
+        cu[j] = c[i0 + j]!;
+        cv[j] = d[i0 + j]!;
+      }
+      runPlan(plan, cu, cv, r2, i2, m);
+      for (let j = 0; j < m; j++) {
+        cu[j] = -(a[i0 + j]! + c[i0 + j]!);
+        cv[j] = -(b[i0 + j]! + d[i0 + j]!);
+      }
+      runPlan(plan, cu, cv, r3, i3, m);
+      for (let j = 0; j < m; j++) {
+        const xr = r1[j]! * r2[j]! - i1[j]! * i2[j]!;
+        const xi = r1[j]! * i2[j]! + i1[j]! * r2[j]!;
+        re[i0 + j] = xr * r3[j]! - xi * i3[j]!;
+        im[i0 + j] = xr * i3[j]! + xi * r3[j]!;
+      }
     }
     return out ?? { re, im };
   }
@@ -735,6 +749,9 @@ export class Model {
     return o;
   }
 }
+
+/** Triangles per chunk of {@link Model.bispectrum} (its eight scratch columns take 64 kB). */
+const BISPECTRUM_CHUNK = 1024;
 
 /** atan2 in degrees wrapped to (-180, 180]: -180 maps to +180. */
 function phaseDeg(y: number, x: number): number {
