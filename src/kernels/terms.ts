@@ -396,6 +396,19 @@ export function addRadialProductTerm(
 }
 
 /**
+ * A limb-darkened disk's visibility where the unit-interval tables do not reach: x < 2 through
+ * `quadraticLimbAmplitude` (components.ts), x >= HANKEL_START from 2 J1(x)/x, sin x - x cos x (one shared
+ * argument reduction, trig.ts) and J0. Kept out of the per-point loop of {@link addLimbDarkenedTerm}, whose
+ * common case is the table polynomial, so that the loop's body stays small.
+ */
+function limbOutsidePieces(x: number, c1: number, c32: number, c2: number): number {
+  if (x < 2) return quadraticLimbAmplitudeImport(x, c1, c32, c2);
+  const d = diskAmplitudeImport(x);
+  const l32 = (3 * cosSinCombinationImport(x, -x, 1)) / (x * x * x);
+  return c1 * d + c32 * l32 + (c2 === 0 ? 0 : (8 * c2 * (d - besselJ0Import(x))) / (x * x));
+}
+
+/**
  * Adds a term with one linearly or quadratically limb-darkened disk factor,
  * `flux * V_LD(pi sqrt(q^T M q)) * exp(-2 pi i (u e0 + v n0))`, in one pass.
  *
@@ -450,10 +463,7 @@ export function addLimbDarkenedTerm(
   const nh = splitHead(n0);
   const nl = n0 - nh;
   const SIN_COS = SIN_COS_IMPORT;
-  const diskAmplitude = diskAmplitudeImport;
-  const besselJ0 = besselJ0Import;
-  const nearZero = quadraticLimbAmplitudeImport;
-  const sinMinusXCos = cosSinCombinationImport;
+  const outside = limbOutsidePieces;
   const basisPiece = basisPieceImport;
   const m12x2 = 2 * m12;
   const shifted = e0 !== 0 || n0 !== 0;
@@ -463,17 +473,11 @@ export function addLimbDarkenedTerm(
     const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
     const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
     let p: number;
-    if (x < 2) p = nearZero(x, c1, c32, c2);
-    else if (x < PIECES_END) {
+    if (x >= 2 && x < PIECES_END) {
       // the law's own polynomial on the piece (limbPieces): c1 D + c32 L + c2 W in one evaluation
       const k = (x | 0) - 2; // floor, 2 <= x < PIECES_END
       p = basisPiece(pieces, k, x - k - 2.5);
-    } else {
-      const d = diskAmplitude(x);
-      // sin x - x cos x with one shared argument reduction (trig.ts) instead of Math.sin and Math.cos
-      const l32 = (3 * sinMinusXCos(x, -x, 1)) / (x * x * x);
-      p = c1 * d + c32 * l32 + (c2 === 0 ? 0 : (8 * c2 * (d - besselJ0(x))) / (x * x));
-    }
+    } else p = outside(x, c1, c32, c2); // near the centre and beyond the tables: out of the loop's body
     const a = flux * p;
     if (shifted) {
       if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
