@@ -6,7 +6,7 @@
 import { Complex } from 'complex.js';
 import { InputError, ModelError } from '../errors.js';
 import { PixelGrid, RadialTable } from '../kernels/tabulated.js';
-import { DEG_PER_RAD, frequencyColumn } from '../units/index.js';
+import { boundedFrequencyColumn, DEG_PER_RAD } from '../units/index.js';
 import { canonicalise, type DualTerm, FACTOR_KINDS, type FactorKind } from './canonical.js';
 import {
   chromaticParams,
@@ -614,14 +614,16 @@ export class Model {
    */
   visibilities(u: ArrayLike<number>, v: ArrayLike<number>, out?: ComplexColumns): ComplexColumns {
     const fn = 'visibilities';
-    let uu = frequencyColumn(u, fn, 'u');
-    let vv = frequencyColumn(v, fn, 'v');
+    const bu = boundedFrequencyColumn(u, fn, 'u');
+    const bv = boundedFrequencyColumn(v, fn, 'v');
+    let uu = bu.column;
+    let vv = bv.column;
     const n = sameLength(fn, ['u', 'v'], [uu, vv]);
     const re = out ? checkOut(fn, out.re, n, 'out.re') : new Float64Array(n);
     const im = out ? checkOut(fn, out.im, n, 'out.im') : new Float64Array(n);
     uu = unalias(uu, [re, im]);
     vv = unalias(vv, [re, im]);
-    runPlan(this.plan(), uu, vv, re, im, n);
+    runPlan(this.plan(), uu, vv, re, im, n, bu.maxAbs, bv.maxAbs);
     return out ?? { re, im };
   }
 
@@ -671,10 +673,14 @@ export class Model {
     out?: ComplexColumns,
   ): ComplexColumns {
     const fn = 'bispectrum';
-    const a = frequencyColumn(u1, fn, 'u1');
-    const b = frequencyColumn(v1, fn, 'v1');
-    const c = frequencyColumn(u2, fn, 'u2');
-    const d = frequencyColumn(v2, fn, 'v2');
+    const ba = boundedFrequencyColumn(u1, fn, 'u1');
+    const bb = boundedFrequencyColumn(v1, fn, 'v1');
+    const bc = boundedFrequencyColumn(u2, fn, 'u2');
+    const bd = boundedFrequencyColumn(v2, fn, 'v2');
+    const a = ba.column;
+    const b = bb.column;
+    const c = bc.column;
+    const d = bd.column;
     const n = sameLength(fn, ['u1', 'v1', 'u2', 'v2'], [a, b, c, d]);
     const re = out ? checkOut(fn, out.re, n, 'out.re') : new Float64Array(n);
     const im = out ? checkOut(fn, out.im, n, 'out.im') : new Float64Array(n);
@@ -697,17 +703,17 @@ export class Model {
         cu[j] = a[i0 + j]!;
         cv[j] = b[i0 + j]!;
       }
-      runPlan(plan, cu, cv, r1, i1, m);
+      runPlan(plan, cu, cv, r1, i1, m, ba.maxAbs, bb.maxAbs);
       for (let j = 0; j < m; j++) {
         cu[j] = c[i0 + j]!;
         cv[j] = d[i0 + j]!;
       }
-      runPlan(plan, cu, cv, r2, i2, m);
+      runPlan(plan, cu, cv, r2, i2, m, bc.maxAbs, bd.maxAbs);
       for (let j = 0; j < m; j++) {
         cu[j] = -(a[i0 + j]! + c[i0 + j]!);
         cv[j] = -(b[i0 + j]! + d[i0 + j]!);
       }
-      runPlan(plan, cu, cv, r3, i3, m);
+      runPlan(plan, cu, cv, r3, i3, m, ba.maxAbs + bc.maxAbs, bb.maxAbs + bd.maxAbs);
       for (let j = 0; j < m; j++) {
         const xr = r1[j]! * r2[j]! - i1[j]! * i2[j]!;
         const xi = r1[j]! * i2[j]! + i1[j]! * r2[j]!;

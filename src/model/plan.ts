@@ -184,6 +184,8 @@ export const PLAN_BLOCK = 1024;
  * @param re - output real parts (length >= n); may not alias u or v
  * @param im - output imaginary parts (length >= n)
  * @param n - number of points
+ * @param uBound - optional: an upper bound on |u| over the points (NaN: none known)
+ * @param vBound - optional: an upper bound on |v| over the points
  *
  * Notes: terms of the foundation kinds and the limb-darkened disks run block by block ({@link PLAN_BLOCK}
  * points), with the decision between the split and the plain phase ramp ({@link phaseNeedsSplit}) taken per
@@ -198,14 +200,18 @@ export function runPlan(
   re: Float64Array,
   im: Float64Array,
   n: number,
+  uBound = Number.NaN,
+  vBound = Number.NaN,
 ): void {
   const terms = plan.terms;
   const k = 1 / plan.totalFlux;
   let late = false;
-  let shifted = false;
+  // the largest |u|, |v| of each block decide between the plain and the split phase, unless bounds over all
+  // points (the caller's, from its finiteness check) already say that no term needs the split one
+  let perBlock = false;
   for (const t of terms) {
     if (t.component === true) late = true;
-    if (t.e0 !== 0 || t.n0 !== 0) shifted = true;
+    if ((t.e0 !== 0 || t.n0 !== 0) && phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
   }
   // without extended components every term is added already normalised (flux / total), with no last pass
   const scale = late ? 1 : k;
@@ -213,8 +219,8 @@ export function runPlan(
     const b1 = b0 + PLAN_BLOCK < n ? b0 + PLAN_BLOCK : n;
     re.fill(0, b0, b1);
     im.fill(0, b0, b1);
-    const uMax = shifted ? maxAbs(u, b0, b1) : 0;
-    const vMax = shifted ? maxAbs(v, b0, b1) : 0;
+    const uMax = perBlock ? maxAbs(u, b0, b1) : uBound;
+    const vMax = perBlock ? maxAbs(v, b0, b1) : vBound;
     for (let j = 0; j < terms.length; j++) {
       const t = terms[j]!;
       const nf = t.factors.length;

@@ -102,25 +102,26 @@ export function wrapRadians(rad: number): number {
 }
 
 /**
- * Whether every entry of a column is finite: x * 0 is 0 for finite x and NaN otherwise, summed in four
- * independent chains (a loop with a test per entry measured about four times slower).
+ * The largest |x| of a column, or NaN when an entry is NaN and Infinity when one is infinite: four independent
+ * Math.max chains (branch-free; a loop with a test per entry measured about four times slower). One pass gives
+ * both the finiteness check of the inputs and the bound on |u|, |v| that the phase ramps need.
  * @param a - a column
  */
-export function allFinite(a: Float64Array): boolean {
+export function maxAbsOrNaN(a: Float64Array): number {
   const n = a.length;
-  let s0 = 0;
-  let s1 = 0;
-  let s2 = 0;
-  let s3 = 0;
+  let m0 = 0;
+  let m1 = 0;
+  let m2 = 0;
+  let m3 = 0;
   let i = 0;
   for (; i + 3 < n; i += 4) {
-    s0 += a[i]! * 0;
-    s1 += a[i + 1]! * 0;
-    s2 += a[i + 2]! * 0;
-    s3 += a[i + 3]! * 0;
+    m0 = Math.max(m0, Math.abs(a[i]!));
+    m1 = Math.max(m1, Math.abs(a[i + 1]!));
+    m2 = Math.max(m2, Math.abs(a[i + 2]!));
+    m3 = Math.max(m3, Math.abs(a[i + 3]!));
   }
-  for (; i < n; i++) s0 += a[i]! * 0;
-  return s0 + s1 + s2 + s3 === 0;
+  for (; i < n; i++) m0 = Math.max(m0, Math.abs(a[i]!));
+  return Math.max(m0, m1, m2, m3);
 }
 
 /**
@@ -133,11 +134,29 @@ export function allFinite(a: Float64Array): boolean {
  * @throws InputError naming the argument and the index of the first value that is NaN or infinite
  */
 export function frequencyColumn(x: ArrayLike<number>, fn: string, name: string): Float64Array {
+  return boundedFrequencyColumn(x, fn, name).column;
+}
+
+/**
+ * As {@link frequencyColumn}, with the largest |value| found by the same pass.
+ *
+ * @param x - an array or typed array of numbers (cycles per radian)
+ * @param fn - the calling function's name, for the message
+ * @param name - the argument's name, for the message
+ * @returns the column and its largest |value|
+ * @throws InputError naming the argument and the index of the first value that is NaN or infinite
+ */
+export function boundedFrequencyColumn(
+  x: ArrayLike<number>,
+  fn: string,
+  name: string,
+): { column: Float64Array; maxAbs: number } {
   if (x === null || typeof x !== 'object' || typeof x.length !== 'number') {
     throw new InputError(`${fn}: ${name} must be an array or typed array of numbers`, { argument: name });
   }
   const a = x instanceof Float64Array ? x : Float64Array.from(x);
-  if (allFinite(a)) return a;
+  const m = maxAbsOrNaN(a);
+  if (m < Number.POSITIVE_INFINITY) return { column: a, maxAbs: m };
   for (let i = 0; i < a.length; i++) {
     const t = a[i]!;
     if (t - t !== 0) {
@@ -147,5 +166,5 @@ export function frequencyColumn(x: ArrayLike<number>, fn: string, name: string):
       );
     }
   }
-  return a;
+  return { column: a, maxAbs: m };
 }
