@@ -14,7 +14,7 @@
  */
 import { ModelError } from '../errors.js';
 import { besselJ0, besselJ1, diskAmplitude } from '../kernels/bessel.js';
-import { diskPiece, HANKEL_START, w2Piece } from '../kernels/bessel-coefficients.js';
+import { diskPiece, HANKEL_START, j0Piece, w2Piece } from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
 import { maxAbs, phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
@@ -40,6 +40,7 @@ const sinCosSplit = sinCosPhase;
 const SC = SIN_COS;
 const GK = GAUSS_K;
 const diskP = diskPiece;
+const j0P = j0Piece;
 const w2P = w2Piece;
 /** Where besselJ0 and besselJ1 leave their unit-interval polynomials for Hankel's form (bessel-j01.ts). */
 const PIECES_END = HANKEL_START;
@@ -497,8 +498,16 @@ function simpleTerm(
         for (let b = 0; b < m; b++) {
           const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
           const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
-          bp[b] = j0(x);
-          bg[b] = -(PI2 / 4) * flux * disk(x);
+          // J0 and dJ0/dr2 = -(pi^2/4) 2 J1(x)/x from the tables besselJ0 and diskAmplitude use, one index
+          if (x >= 2 && x < PIECES_END) {
+            const k = (x | 0) - 2; // floor - 2
+            const tt = x - k - 2.5;
+            bp[b] = j0P(k, tt);
+            bg[b] = -(PI2 / 4) * flux * diskP(k, tt);
+          } else {
+            bp[b] = j0(x);
+            bg[b] = -(PI2 / 4) * flux * disk(x);
+          }
         }
         break;
       default: {
@@ -652,9 +661,19 @@ function blockTerm(
         for (let b = 0; b < m; b++) {
           const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
           const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
-          const p = j0(x);
+          let p: number;
+          let g: number;
+          if (x >= 2 && x < PIECES_END) {
+            const k = (x | 0) - 2; // floor - 2
+            const tt = x - k - 2.5;
+            p = j0P(k, tt);
+            g = -(PI2 / 4) * diskP(k, tt);
+          } else {
+            p = j0(x);
+            g = -(PI2 / 4) * disk(x);
+          }
           fp[po + b] = p;
-          fg[po + b] = -(PI2 / 4) * disk(x);
+          fg[po + b] = g;
           bp[b] = bp[b]! * p;
         }
         break;
