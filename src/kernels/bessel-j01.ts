@@ -160,7 +160,7 @@ export function besselJ2(x: number): number {
  * @example
  * ```ts
  * diskAmplitude(0); // 1
- * diskAmplitude(3.831705970207512); // 6.372477566969963e-17, at the first null
+ * diskAmplitude(3.831705970207512); // 6.382103506532333e-17, at the first null
  * ```
  */
 export function diskAmplitude(x: number): number {

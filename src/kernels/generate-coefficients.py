@@ -48,6 +48,10 @@ TAIL = mp.mpf('1e-19')
 # interferometric arguments lie (x = pi D q up to a few tens); beyond, t = X0^2 / x^2 is small and P, Q
 # need few terms.
 X0 = 48
+# The unit pieces are cut where their dropped Chebyshev tail is below this, absolutely: every function there is
+# bounded by 1 and its errors are stated absolutely, and 2e-18 is far below the ~1e-16 rounding of evaluating
+# the polynomial in binary64 (a relative bound would ask for more terms near the zeros, for nothing).
+PIECE_TAIL = mp.mpf('2e-18')
 HERE = os.path.dirname(os.path.abspath(__file__))
 
 
@@ -106,11 +110,16 @@ def horner(coeffs, w):
     return acc
 
 
-def fit(f, lo, hi, deg_max, alpha_beta, deg=None):
-    """Fit f(v) on v in [lo, hi]; return (monomial coefficients in the local variable, degree)."""
+def fit(f, lo, hi, deg_max, alpha_beta, deg=None, absolute=None):
+    """Fit f(v) on v in [lo, hi]; return (monomial coefficients in the local variable, degree).
+
+    The degree drops the Chebyshev tail below TAIL relative to the size of f on the interval, or, with
+    absolute given, below that absolute bound."""
     lo, hi = mp.mpf(lo), mp.mpf(hi)
     c = cheb_coefficients(lambda u: f((hi - lo) / 2 * u + (hi + lo) / 2), deg_max)
     scale = max(abs(f(lo)), abs(f(hi)), abs(f((lo + hi) / 2)), mp.mpf('1e-300'))
+    if absolute is not None:
+        scale = absolute / TAIL
     if deg is None:
         deg = truncate(c, scale)
     alpha, beta = alpha_beta
@@ -253,7 +262,7 @@ def main():
     )
     degree_of = {}
     for name, fn, what, f, group in pieces:
-        degree_of[name] = max(fit(f, k, k + 1, 24, (2, 0))[1] for k in range(2, X0))
+        degree_of[name] = max(fit(f, k, k + 1, 24, (2, 0), absolute=PIECE_TAIL)[1] for k in range(2, X0))
     basis_degree = max(degree_of[name] for name, _, _, _, group in pieces if group == 'basis')
     for name, fn, what, f, group in pieces:
         deg = basis_degree if group == 'basis' else degree_of[name]
@@ -272,6 +281,11 @@ def main():
         out.append(poly_table_fn(fn, f'{what} on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).', name, deg + 1))
     out.append(f'/** Coefficients per piece of DISK_PIECES, L32_PIECES, W2_PIECES, L52_PIECES and L3_PIECES. */\n'
                f'export const BASIS_STRIDE = {basis_degree + 1};\n')
+    body, result = estrin_lines([f'T[o + {j}]!' if j else 'T[o]!' for j in range(basis_degree + 1)], 't')
+    out.append('\n'.join(['/**', ' * Piece k (x in [k + 2, k + 3]) of a table with BASIS_STRIDE coefficients per piece (a basis table',
+                          ' * or a sum of them, limb-pieces.ts) at t = x - (k + 5/2), by Estrin\'s scheme.', ' */',
+                          'export function basisPiece(T: Float64Array, k: number, t: number): number {',
+                          f'  const o = k * {basis_degree + 1};'] + body + [f'  return {result};', '}\n']))
 
     # --- Hankel form on x >= X0, polynomials in t = X0^2 / x^2 --------------------------------
     for n in (0, 1):

@@ -6,7 +6,10 @@
  *
  * @module
  */
-import { BASIS_STRIDE, DISK_PIECES, L32_PIECES, W2_PIECES } from './bessel-coefficients.js';
+import { DISK_PIECES, L32_PIECES, W2_PIECES } from './bessel-coefficients.js';
+
+/** Piece k of a table such as {@link limbPieces} gives, at t = x - (k + 5/2) (generated with the tables). */
+export { basisPiece } from './bessel-coefficients.js';
 
 /**
  * The table of c1 D + c32 L + c2 W per piece, with D = 2 J1(x)/x, L = 3 (sin x - x cos x)/x^3, W = 8 J2(x)/x^2.
@@ -14,7 +17,7 @@ import { BASIS_STRIDE, DISK_PIECES, L32_PIECES, W2_PIECES } from './bessel-coeff
  * @param c1 - weight of D
  * @param c32 - weight of L
  * @param c2 - weight of W (0 for the linear law)
- * @returns BASIS_STRIDE coefficients per piece, for {@link basisPiece}
+ * @returns BASIS_STRIDE coefficients per piece, for basisPiece
  *
  * Notes: each coefficient is rounded once more than the basis tables' own; at the points the result differs
  * from the sum of the three polynomials by a few ulp of (|c1| + |c32| + |c2|) times the largest basis value.
@@ -24,23 +27,4 @@ export function limbPieces(c1: number, c32: number, c2: number): Float64Array {
   for (let j = 0; j < out.length; j++)
     out[j] = c1 * DISK_PIECES[j]! + c32 * L32_PIECES[j]! + c2 * W2_PIECES[j]!;
   return out;
-}
-
-/**
- * Evaluates piece k of a table with BASIS_STRIDE (16) coefficients per piece at t, by Estrin's scheme.
- *
- * @param T - the table ({@link limbPieces} or a basis table)
- * @param k - piece index (x in [k + 2, k + 3])
- * @param t - x - (k + 5/2), in [-1/2, 1/2]
- */
-export function basisPiece(T: Float64Array, k: number, t: number): number {
-  const o = k * BASIS_STRIDE;
-  const t2 = t * t;
-  const t4 = t2 * t2;
-  const t8 = t4 * t4;
-  const a = T[o]! + T[o + 1]! * t + (T[o + 2]! + T[o + 3]! * t) * t2;
-  const b = T[o + 4]! + T[o + 5]! * t + (T[o + 6]! + T[o + 7]! * t) * t2;
-  const c = T[o + 8]! + T[o + 9]! * t + (T[o + 10]! + T[o + 11]! * t) * t2;
-  const d = T[o + 12]! + T[o + 13]! * t + (T[o + 14]! + T[o + 15]! * t) * t2;
-  return a + b * t4 + (c + d * t4) * t8;
 }
