@@ -192,15 +192,19 @@ export async function parallelGridSearch(
     all.forEach((n, i) => {
       chi2Map[i] = n.chi2;
     });
-    // the same minima and best fit as the serial search: refine from the best end point once
-    const finite = all.filter((n) => Number.isFinite(n.chi2));
-    if (finite.length === 0)
+    // the same minima and best fit as the serial search: the best fit is the fit from the first node of
+    // lowest chi2, run again here from that node's start (as the serial search keeps it), so it is the same fit
+    let bestNode = -1;
+    for (let i = 0; i < all.length; i++) {
+      if (Number.isFinite(all[i]!.chi2) && (bestNode < 0 || all[i]!.chi2 < all[bestNode]!.chi2)) bestNode = i;
+    }
+    if (bestNode < 0)
       throw new FitError('parallelGridSearch: every grid node lies outside the parameter bounds');
     const axes = entries.map(([name, values]) => Object.freeze({ name, values: Object.freeze([...values]) }));
     const minima = distinctMinima(all, axes, options.minima ?? 5);
     const blocks = gatherData(dataset, options);
     const prep = prepareFit(model, blocks, correlationWhitening(dataset, blocks));
-    const start = parameterVector(model, minima[0]!.values);
+    const start = parameterVector(model, { ...options.start, ...all[bestNode]!.start });
     const sol = solvePrepared(prep, start, { ...options, onProgress: undefined });
     return {
       axes,

@@ -7,7 +7,7 @@
  * Method, for a = |x|:
  * - a < 2: J0 = 1 + s B0(s), J1 / x = 1/2 + s B1(s), J2 / x^2 = 1/8 + s B2(s) with s = x^2 and B polynomials
  *   (the power series A&S 9.1.10, economised by a Chebyshev fit), so there is no cancellation near 0;
- * - 2 <= a < HANKEL_START (48): one polynomial in t = a - (k + 1/2) per unit interval [k, k + 1], read from a
+ * - 2 <= a < HANKEL_START (48): one polynomial of degree 11 per half-unit piece [2 + j/2, 2.5 + j/2], read from a
  *   table (no argument reduction, no division, no square root: the arguments x = pi D q of interferometric
  *   models lie mostly below a few tens, so this is the common path);
  * - a >= HANKEL_START: the Hankel form (A&S 9.2.5) J_n = sqrt(2 / (pi a)) (P_n cos w - Q_n sin w),
@@ -30,6 +30,8 @@ import {
   j2NearZeroB,
   p0Hankel,
   p1Hankel,
+  pieceIndex,
+  pieceLocal,
   q0Hankel,
   q1Hankel,
 } from './bessel-coefficients.js';
@@ -50,8 +52,8 @@ function j0NonNegative(a: number): number {
     return 1 + s * j0NearZeroB(s);
   }
   if (a < HANKEL_START) {
-    const k = a | 0; // floor for 2 <= a < HANKEL_START, cheaper than Math.floor
-    return j0Piece(k - 2, a - k - 0.5);
+    const j = pieceIndex(a);
+    return j0Piece(j, pieceLocal(a, j));
   }
   if (!(a < Number.POSITIVE_INFINITY)) return Number.NaN;
   const inv = 1 / a;
@@ -65,8 +67,8 @@ function j0NonNegative(a: number): number {
 /** J1(a) for a >= 2 or NaN (the caller handles a < 2). */
 function j1AtLeastTwo(a: number): number {
   if (a < HANKEL_START) {
-    const k = a | 0; // floor for 2 <= a < HANKEL_START, cheaper than Math.floor
-    return j1Piece(k - 2, a - k - 0.5);
+    const j = pieceIndex(a);
+    return j1Piece(j, pieceLocal(a, j));
   }
   if (!(a < Number.POSITIVE_INFINITY)) return Number.NaN;
   const inv = 1 / a;
@@ -160,7 +162,7 @@ export function besselJ2(x: number): number {
  * @example
  * ```ts
  * diskAmplitude(0); // 1
- * diskAmplitude(3.831705970207512); // 6.382103506532333e-17, at the first null
+ * diskAmplitude(3.831705970207512); // 5.885998893916977e-17, at the first null
  * ```
  */
 export function diskAmplitude(x: number): number {
@@ -170,8 +172,8 @@ export function diskAmplitude(x: number): number {
     return 1 + 2 * s * j1NearZeroB(s);
   }
   if (a < HANKEL_START) {
-    const k = (a | 0) - 2; // floor(a) - 2 for 2 <= a < HANKEL_START
-    return diskPiece(k, a - k - 2.5); // its own table: no division by a
+    const j = pieceIndex(a);
+    return diskPiece(j, pieceLocal(a, j)); // its own table: no division by a
   }
   return (2 * j1AtLeastTwo(a)) / a;
 }

@@ -21,6 +21,8 @@ import {
   L3_PIECES,
   L32_PIECES,
   L52_PIECES,
+  pieceIndex,
+  pieceLocal,
   W2_PIECES,
 } from './bessel-coefficients.js';
 import { powerLawOrderDerivative } from './bessel-jnu-order.js';
@@ -104,8 +106,8 @@ export function limbDarkenedDerivatives(r2: number, p: Float64Array, out: Float6
   const c2 = quadratic ? p[2]! : 0;
   if (x >= 2 && x < HANKEL_START) {
     // every basis function from its unit-interval table (bessel-coefficients.ts), one piece index for all
-    const k = (x | 0) - 2; // floor - 2
-    const t = x - k - 2.5;
+    const k = pieceIndex(x);
+    const t = pieceLocal(x, k);
     const d = basisPiece(DISK_PIECES, k, t);
     const l = basisPiece(L32_PIECES, k, t);
     const w = basisPiece(W2_PIECES, k, t); // 8 J2/x^2

@@ -21,9 +21,9 @@ Method (all arithmetic in mpmath at 50 significant digits):
 Fitted pieces:
   J0, J1, J2 on 0 <= x <= 2, as polynomials in s = x^2 with the value at 0 pinned:
       J0 = 1 + s B0(s),  J1 / x = 1/2 + s B1(s),  J2 / x^2 = 1/8 + s B2(s)
-  J0, J1, 2 J1 / x, 3 (sin x - x cos x) / x^3, 8 J2 / x^2, L_{5/2} and 48 J3 / x^3 on [n, n + 1] for
-  n = 2 .. X0 - 1, as
-  polynomials in t = x - (n + 1/2)
+  J0, J1, 2 J1 / x, 3 (sin x - x cos x) / x^3, 8 J2 / x^2, L_{5/2} and 48 J3 / x^3 on pieces of half a
+  unit [2 + j/2, 2.5 + j/2] up to X0, as
+  polynomials in t = x - (2.25 + j/2)
   J0, J1 on x >= X0 through the Hankel form
       J_n(x) = sqrt(2 / (pi x)) (P_n(x) cos w - Q_n(x) sin w),  w = x - (2 n + 1) pi / 4,
   with P_n and x Q_n as polynomials in t = X0^2 / x^2 on [0, 1]; P and Q are taken
@@ -52,6 +52,9 @@ X0 = 48
 # bounded by 1 and its errors are stated absolutely, and 2e-18 is far below the ~1e-16 rounding of evaluating
 # the polynomial in binary64 (a relative bound would ask for more terms near the zeros, for nothing).
 PIECE_TAIL = mp.mpf('2e-18')
+# Width of the pieces: half a unit, so that degree 10-11 suffices (a unit width needs 13).
+WIDTH = mp.mpf(1) / 2
+NPIECES = int((X0 - 2) / WIDTH)
 HERE = os.path.dirname(os.path.abspath(__file__))
 
 
@@ -260,30 +263,35 @@ def main():
          lambda x: 15 * ((3 - x**2) * mp.sin(x) - 3 * x * mp.cos(x)) / x**5, 'basis'),
         ('L3_PIECES', 'l3Piece', '48 J3(x) / x^3', lambda x: 48 * mp.besselj(3, x) / x**3, 'basis'),
     )
+    def bounds(j):
+        lo = 2 + j * WIDTH
+        return lo, lo + WIDTH, lo + WIDTH / 2
+
     degree_of = {}
     for name, fn, what, f, group in pieces:
-        degree_of[name] = max(fit(f, k, k + 1, 24, (2, 0), absolute=PIECE_TAIL)[1] for k in range(2, X0))
+        degree_of[name] = max(fit(f, bounds(j)[0], bounds(j)[1], 24, (2 / WIDTH, 0), absolute=PIECE_TAIL)[1]
+                              for j in range(NPIECES))
     basis_degree = max(degree_of[name] for name, _, _, _, group in pieces if group == 'basis')
+    where = f'piece j = 0 .. {NPIECES - 1} (x in [2 + j/2, 2.5 + j/2]), t = x - (2.25 + j/2)'
     for name, fn, what, f, group in pieces:
         deg = basis_degree if group == 'basis' else degree_of[name]
         table = []
         errs = []
-        for k in range(2, X0):
-            mid = mp.mpf(k) + mp.mpf(1) / 2
-            coeffs, _ = fit(f, k, k + 1, 24, (2, 0), deg)
-            errs.append(check(coeffs, f, k, k + 1, lambda x: x - mid, 100))
+        for j in range(NPIECES):
+            lo, hi, mid = bounds(j)
+            coeffs, _ = fit(f, lo, hi, 24, (2 / WIDTH, 0), deg)
+            errs.append(check(coeffs, f, lo, hi, lambda x: x - mid, 60))
             table.extend(coeffs)
-        report.append(f'// {name}: degree {deg} in t = x - (k + 1/2) on [k, k + 1], k = 2 .. {X0 - 1}, '
-                      f'largest error {mp.nstr(max(errs), 3)}')
-        out.append(f'/** {name}: {deg + 1} coefficients per piece [k, k + 1], k = 2 .. {X0 - 1}, in t = x - (k + 1/2). */')
+        report.append(f'// {name}: degree {deg} in t on {where}, largest error {mp.nstr(max(errs), 3)}')
+        out.append(f'/** {name}: {deg + 1} coefficients per {where}. */')
         exported = 'export ' if group == 'basis' else ''
         out.append(f'{exported}const {name} = new Float64Array([\n  {fmt(table)},\n]);\n')
-        out.append(poly_table_fn(fn, f'{what} on piece k (x in [k + 2, k + 3]), t = x - (k + 5/2).', name, deg + 1))
+        out.append(poly_table_fn(fn, f'{what} on {where}.', name, deg + 1))
     out.append(f'/** Coefficients per piece of DISK_PIECES, L32_PIECES, W2_PIECES, L52_PIECES and L3_PIECES. */\n'
                f'export const BASIS_STRIDE = {basis_degree + 1};\n')
     body, result = estrin_lines([f'T[o + {j}]!' if j else 'T[o]!' for j in range(basis_degree + 1)], 't')
     out.append('\n'.join(['/**', ' * Piece k (x in [k + 2, k + 3]) of a table with BASIS_STRIDE coefficients per piece (a basis table',
-                          ' * or a sum of them, limb-pieces.ts) at t = x - (k + 5/2), by Estrin\'s scheme.', ' */',
+                          ' * or a sum of them, limb-pieces.ts) at t = pieceLocal(x, k), by Estrin\'s scheme.', ' */',
                           'export function basisPiece(T: Float64Array, k: number, t: number): number {',
                           f'  const o = k * {basis_degree + 1};'] + body + [f'  return {result};', '}\n']))
 
@@ -304,6 +312,10 @@ def main():
             fn = f'{label.lower()}{n}Hankel'
             out.append(poly_fn(fn, f'{name}: {what} for x >= {X0}, t = {X0 * X0} / x^2.', 't', coeffs))
     out.append(f'/** Where the pieces end and the Hankel form begins. */\nexport const HANKEL_START = {X0};\n')
+    out.append('/** The piece of x for 2 <= x < HANKEL_START: pieces are half a unit wide from x = 2. */\n'
+               'export function pieceIndex(x: number): number {\n  return ((2 * x) | 0) - 4; // floor(2 (x - 2)), 2 x < 2^31\n}\n')
+    out.append('/** x on piece j as its polynomial takes it, t = x - (2.25 + j/2), in [-1/4, 1/4). */\n'
+               'export function pieceLocal(x: number, j: number): number {\n  return x - (2.25 + 0.5 * j);\n}\n')
 
     # --- sin and cos on |r| <= pi/4, and pi/2 in two parts for the argument reduction ------------------
     # sin r = r + r^3 S(r^2), cos r = 1 - r^2/2 + r^4 C(r^2), S and C from their Taylor series.

@@ -9,7 +9,7 @@
  * @module
  */
 import { besselJ0 as besselJ0Import, diskAmplitude as diskAmplitudeImport } from './bessel.js';
-import { HANKEL_START as PIECES_END } from './bessel-coefficients.js';
+import { HANKEL_START as PIECES_END, pieceIndex, pieceLocal } from './bessel-coefficients.js';
 import { quadraticLimbAmplitude as quadraticLimbAmplitudeImport } from './components.js';
 import { basisPiece as basisPieceImport } from './limb-pieces.js';
 import {
@@ -475,8 +475,8 @@ export function addLimbDarkenedTerm(
     let p: number;
     if (x >= 2 && x < PIECES_END) {
       // the law's own polynomial on the piece (limbPieces): c1 D + c32 L + c2 W in one evaluation
-      const k = (x | 0) - 2; // floor, 2 <= x < PIECES_END
-      p = basisPiece(pieces, k, x - k - 2.5);
+      const j = pieceIndex(x);
+      p = basisPiece(pieces, j, pieceLocal(x, j));
     } else p = outside(x, c1, c32, c2); // near the centre and beyond the tables: out of the loop's body
     const a = flux * p;
     if (shifted) {

@@ -14,7 +14,14 @@
  */
 import { ModelError } from '../errors.js';
 import { besselJ0, besselJ1, diskAmplitude } from '../kernels/bessel.js';
-import { diskPiece, HANKEL_START, j0Piece, w2Piece } from '../kernels/bessel-coefficients.js';
+import {
+  diskPiece,
+  HANKEL_START,
+  j0Piece,
+  pieceIndex,
+  pieceLocal,
+  w2Piece,
+} from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
 import { maxAbs, phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
@@ -473,8 +480,8 @@ function simpleTerm(
             // P = 2 J1/x and J2/x^2 = W/8 (A&S 9.1.27) from the tables diskAmplitude uses below HANKEL_START
             // (bessel-coefficients.ts), one piece index for both and no division; beyond, from J0 and J1.
             if (x < PIECES_END) {
-              const k = (x | 0) - 2; // floor - 2, 2 <= x < PIECES_END
-              const tt = x - k - 2.5;
+              const k = pieceIndex(x);
+              const tt = pieceLocal(x, k);
               bp[b] = diskP(k, tt);
               bg[b] = -PI2 * 0.125 * flux * w2P(k, tt);
             } else {
@@ -500,8 +507,8 @@ function simpleTerm(
           const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
           // J0 and dJ0/dr2 = -(pi^2/4) 2 J1(x)/x from the tables besselJ0 and diskAmplitude use, one index
           if (x >= 2 && x < PIECES_END) {
-            const k = (x | 0) - 2; // floor - 2
-            const tt = x - k - 2.5;
+            const k = pieceIndex(x);
+            const tt = pieceLocal(x, k);
             bp[b] = j0P(k, tt);
             bg[b] = -(PI2 / 4) * flux * diskP(k, tt);
           } else {
@@ -635,8 +642,8 @@ function blockTerm(
           let p: number;
           let g: number;
           if (x >= 2 && x < PIECES_END) {
-            const k = (x | 0) - 2; // floor - 2
-            const tt = x - k - 2.5;
+            const k = pieceIndex(x);
+            const tt = pieceLocal(x, k);
             p = diskP(k, tt);
             g = -PI2 * 0.125 * w2P(k, tt); // -pi^2 J2(x)/x^2, W = 8 J2/x^2
           } else {
@@ -664,8 +671,8 @@ function blockTerm(
           let p: number;
           let g: number;
           if (x >= 2 && x < PIECES_END) {
-            const k = (x | 0) - 2; // floor - 2
-            const tt = x - k - 2.5;
+            const k = pieceIndex(x);
+            const tt = pieceLocal(x, k);
             p = j0P(k, tt);
             g = -(PI2 / 4) * diskP(k, tt);
           } else {

@@ -1,5 +1,5 @@
 /**
- * The unit-interval tables of bessel-coefficients.ts (2 <= x < HANKEL_START): every basis function of the
+ * The piecewise tables of bessel-coefficients.ts (half-unit pieces, 2 <= x < HANKEL_START): every basis function of the
  * limb-darkened disks and their slopes, and the law tables a plan builds from them.
  */
 import besselj0 from '@stdlib/math-base-special-besselj0';
@@ -12,6 +12,8 @@ import {
   L3_PIECES,
   L32_PIECES,
   L52_PIECES,
+  pieceIndex,
+  pieceLocal,
   W2_PIECES,
 } from '../../src/kernels/bessel-coefficients.js';
 import { limbDarkenedCoefficients } from '../../src/kernels/components.js';
@@ -25,9 +27,11 @@ const CLOSED = 'closed forms of the spherical Bessel functions (A&S 10.1.11) in 
 /** Rows [x, J0, J1, J2] of the fixture with 2 <= x < HANKEL_START. */
 const rows = fixture.j012_moderate.filter((r) => col(r, 0) >= 2 && col(r, 0) < HANKEL_START);
 
+/** The table's polynomial at x, with the piece found here independently of pieceIndex (half-unit pieces from 2). */
 function atPiece(table: Float64Array, x: number): number {
-  const k = Math.floor(x) - 2;
-  return basisPiece(table, k, x - k - 2.5);
+  const j = Math.floor(2 * (x - 2));
+  expect(pieceIndex(x)).toBe(j);
+  return basisPiece(table, j, x - (2 + (j + 0.5) / 2));
 }
 
 // Tolerances: the tables' own fit error is below 7e-17 (generator report); what is left is rounding in the
@@ -41,8 +45,24 @@ const CLOSED_TOL = 8 * EPS;
 
 describe('unit-interval tables of the limb-darkening basis', () => {
   it('has fixture points on many pieces', () => {
-    const pieces = new Set(rows.map((r) => Math.floor(col(r, 0))));
+    const pieces = new Set(rows.map((r) => Math.floor(2 * (col(r, 0) - 2))));
     expect(pieces.size).toBeGreaterThan(25);
+  });
+
+  it('finds the half-unit piece of x and its local variable, also at the piece ends', () => {
+    for (const [x, j] of [
+      [2, 0],
+      [2.4999999999999996, 0],
+      [2.5, 1],
+      [3, 2],
+      [47.99999999999999, 91],
+    ] as const) {
+      expect(pieceIndex(x)).toBe(j);
+      const t = pieceLocal(x, j);
+      expect(t).toBeGreaterThanOrEqual(-0.25);
+      expect(t).toBeLessThan(0.25);
+    }
+    expect(DISK_PIECES.length / BASIS_STRIDE).toBe(2 * (HANKEL_START - 2));
   });
 
   it('gives 2 J1/x, 8 J2/x^2 and 48 J3/x^3 on every piece against @stdlib (Cephes-derived) J0 and J1', () => {
@@ -83,11 +103,11 @@ describe('unit-interval tables of the limb-darkening basis', () => {
     }
   });
 
-  it('joins neighbouring pieces to within a few ulp at the integers', () => {
+  it('joins neighbouring pieces to within a few ulp at their common ends', () => {
     for (const table of [DISK_PIECES, L32_PIECES, W2_PIECES, L52_PIECES, L3_PIECES]) {
       for (let k = 0; k + 1 < table.length / BASIS_STRIDE; k++) {
-        const left = basisPiece(table, k, 0.5);
-        const right = basisPiece(table, k + 1, -0.5);
+        const left = basisPiece(table, k, 0.25);
+        const right = basisPiece(table, k + 1, -0.25);
         expect(Math.abs(left - right)).toBeLessThan(2 * MPMATH_TOL);
       }
     }
