@@ -65,11 +65,17 @@ export function addPointTerm(
     for (let i = start; i < end; i++) re[i] = re[i]! + flux;
     return;
   }
+  if (exact) {
+    for (let i = start; i < end; i++) {
+      sinCosPhase(u[i]!, v[i]!, eh, el, nh, nl);
+      re[i] = re[i]! + flux * SIN_COS[1]!;
+      im[i] = im[i]! - flux * SIN_COS[0]!;
+    }
+    return;
+  }
+  // the plain phase (most shifts of most blocks): a loop of its own, without the branch on exact
   for (let i = start; i < end; i++) {
-    const uu = u[i]!;
-    const vv = v[i]!;
-    if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
-    else sinCosTurns(uu * e0 + vv * n0);
+    sinCosTurns(u[i]! * e0 + v[i]! * n0);
     re[i] = re[i]! + flux * SIN_COS[1]!;
     im[i] = im[i]! - flux * SIN_COS[0]!;
   }
@@ -312,6 +318,8 @@ export function addAmplitudeTerm(
  * @param n0 - shift north, rad
  * @param exact - whether the phase needs {@link sinCosPhase} (see phaseNeedsSplit in sincos.ts); otherwise
  *   sinCosTurns(u e0 + v n0) is accurate enough
+ * @param ratio - for two factors whose forms are proportional to rounding (M_1 = ratio M_0, compilePlan finds
+ *   them), the ratio, so that one form serves both; NaN otherwise
  *
  * Notes: gives the same numbers as multiplying the factors one loop at a time ({@link mulRadial}) and adding the
  * ramp ({@link addAmplitudeTerm}): the factors are multiplied into the flux in the same order.
@@ -330,6 +338,7 @@ export function addRadialProductTerm(
   e0: number,
   n0: number,
   exact: boolean,
+  ratio = Number.NaN,
 ): void {
   const sinCosPhase = sinCosPhaseImport;
   const sinCosTurns = sinCosTurnsImport;
@@ -357,11 +366,13 @@ export function addRadialProductTerm(
     const b11 = m[3]!;
     const b12 = 2 * m[4]!;
     const b22 = m[5]!;
+    // a blurred ring or disk: both factors seen through one map, so M_1 = ratio M_0 and one form serves both
+    const proportional = !Number.isNaN(ratio);
     for (let i = start; i < end; i++) {
       const uu = u[i]!;
       const vv = v[i]!;
       const r2a = a11 * uu * uu + a12 * uu * vv + a22 * vv * vv;
-      const r2b = b11 * uu * uu + b12 * uu * vv + b22 * vv * vv;
+      const r2b = proportional ? ratio * r2a : b11 * uu * uu + b12 * uu * vv + b22 * vv * vv;
       const a = flux * k0(r2a > 0 ? r2a : 0) * k1(r2b > 0 ? r2b : 0);
       if (shifted) {
         if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);

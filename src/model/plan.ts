@@ -66,7 +66,7 @@ export interface PlanTerm {
    * @internal How {@link runPlan} evaluates the term: its factors' codes and quadratic forms packed for one
    * fused loop (foundation radial products), or null when the term goes through the general loops.
    */
-  readonly fused?: { readonly codes: Int32Array; readonly m: Float64Array } | null;
+  readonly fused?: { readonly codes: Int32Array; readonly m: Float64Array; readonly ratio: number } | null;
   /** @internal True when a factor is one of the extended components (run over all points, after the blocks). */
   readonly component?: boolean;
   /** @internal For a lone limb-darkened disk: its law's table on the unit pieces (limbPieces, limb-pieces.ts). */
@@ -80,6 +80,21 @@ export interface Plan {
   readonly totalFlux: number;
   /** Scratch held by the plan and grown when needed (not shared across threads). */
   scratch: Float64Array;
+}
+
+/**
+ * The ratio r with M_b = r M_a when two factors' quadratic forms are proportional to rounding (a blurred ring
+ * or disk: both factors seen through one map, scaled), else NaN.
+ * @param a - first factor
+ * @param b - second factor
+ */
+function formRatio(a: PlanFactor, b: PlanFactor): number {
+  const ta = a.m11 + a.m22;
+  if (!(ta > 0)) return Number.NaN;
+  const r = (b.m11 + b.m22) / ta;
+  const tol = 1e-14 * (b.m11 + b.m22);
+  const close = (x: number, y: number) => Math.abs(y - r * x) <= tol;
+  return close(a.m11, b.m11) && close(a.m12, b.m12) && close(a.m22, b.m22) ? r : Number.NaN;
 }
 
 /**
@@ -126,6 +141,7 @@ export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
       ? {
           codes: Int32Array.from(factors, (f) => f.code),
           m: Float64Array.from(factors.flatMap((f) => [f.m11, f.m12, f.m22])),
+          ratio: factors.length === 2 ? formRatio(factors[0]!, factors[1]!) : Number.NaN,
         }
       : null;
     // a lone limb-darkened disk has its own block kernel (addLimbDarkenedTerm); other components do not
@@ -259,7 +275,22 @@ export function runPlan(
       } else {
         // a product of foundation kinds (compilePlan packed it): one fused pass, no scratch
         const fused = t.fused!;
-        addRadialProductTerm(fused.codes, fused.m, nf, re, im, u, v, b0, b1, flux, t.e0, t.n0, exact);
+        addRadialProductTerm(
+          fused.codes,
+          fused.m,
+          nf,
+          re,
+          im,
+          u,
+          v,
+          b0,
+          b1,
+          flux,
+          t.e0,
+          t.n0,
+          exact,
+          fused.ratio,
+        );
       }
     }
   }
