@@ -372,6 +372,8 @@ function scratchFor(plan: JPlan): Scratch {
  * @param dre - out: d Re V / d p, row-major n x cols
  * @param dim - out: d Im V / d p
  * @param n - number of points
+ * @param uBound - optional: an upper bound on |u| over the points (NaN: none known)
+ * @param vBound - optional: an upper bound on |v| over the points
  *
  * Notes: points go in blocks of {@link BLOCK}. Within a block, a term with at most one factor and no kernel
  * coefficients (a point, disk, Gaussian, ring, exponential, ...: the common case) runs one loop per kernel
@@ -389,6 +391,8 @@ export function runJacobian(
   dre: Float64Array,
   dim: Float64Array,
   n: number,
+  uBound = Number.NaN,
+  vBound = Number.NaN,
 ): void {
   const cols = plan.cols;
   const s = scratchFor(plan);
@@ -403,6 +407,9 @@ export function runJacobian(
   const movingIdx = Int32Array.from(moving);
   const terms = plan.terms;
   const nt = terms.length;
+  // as runPlan: per-block maxima of |u|, |v| only when bounds over all points leave a shift needing the split
+  let perBlock = false;
+  for (const t of terms) if (t.shifted && phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
   for (let i0 = 0; i0 < n; i0 += BLOCK) {
     const m = Math.min(BLOCK, n - i0);
     for (let b = 0; b < m; b++) {
@@ -420,8 +427,8 @@ export function runJacobian(
     dre.fill(0, row0, row0 + m * cols);
     dim.fill(0, row0, row0 + m * cols);
     // the split phase ramp only where u e0 + v n0 can exceed PLAIN_PHASE_TURNS (as the value path)
-    const uMax = maxAbs(bu, 0, m);
-    const vMax = maxAbs(bv, 0, m);
+    const uMax = perBlock ? maxAbs(bu, 0, m) : uBound;
+    const vMax = perBlock ? maxAbs(bv, 0, m) : vBound;
     for (let k = 0; k < nt; k++) {
       const t = terms[k]!;
       const exact = phaseNeedsSplit(uMax, vMax, t.e0, t.n0);
@@ -537,14 +544,24 @@ function simpleTerm(
     const el = t.el;
     const nh = t.nh;
     const nl = t.nl;
+    // the phases first, one loop per form (no branch on exact inside), then the term
+    if (exact) {
+      for (let b = 0; b < m; b++) {
+        sinCosSplit(bu[b]!, bv[b]!, eh, el, nh, nl);
+        bc[b] = SC[1]!;
+        bs[b] = -SC[0]!;
+      }
+    } else {
+      for (let b = 0; b < m; b++) {
+        sinCos(bu[b]! * e0 + bv[b]! * n0);
+        bc[b] = SC[1]!;
+        bs[b] = -SC[0]!;
+      }
+    }
     for (let b = 0; b < m; b++) {
-      if (exact) sinCosSplit(bu[b]!, bv[b]!, eh, el, nh, nl);
-      else sinCos(bu[b]! * e0 + bv[b]! * n0);
-      const c = SC[1]!;
-      const sn = -SC[0]!;
+      const c = bc[b]!;
+      const sn = bs[b]!;
       const a = flux * bp[b]!;
-      bc[b] = c;
-      bs[b] = sn;
       tre[b] = a * c;
       tim[b] = a * sn;
       fre[b] = fre[b]! + a * c;
@@ -576,34 +593,34 @@ function simpleTerm(
     if (!t.shifted && de === 0 && dn === 0) {
       // no phase ramp (cos 1, sin 0) and none made by this parameter: the derivative is real, Im is left alone
       if (d11 === 0 && d12 === 0 && d22 === 0) {
-        for (let b = 0; b < m; b++) dfr[base + b * cols] = dfr[base + b * cols]! + df * bp[b]!;
+        for (let b = 0, at = base; b < m; b++, at += cols) dfr[at] = dfr[at]! + df * bp[b]!;
       } else {
-        for (let b = 0; b < m; b++) {
+        for (let b = 0, at = base; b < m; b++, at += cols) {
           const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
-          dfr[base + b * cols] = dfr[base + b * cols]! + w;
+          dfr[at] = dfr[at]! + w;
         }
       }
     } else if (de === 0 && dn === 0 && d11 === 0 && d12 === 0 && d22 === 0) {
       // a flux (weight) parameter: d flux * P, times the phase
-      for (let b = 0; b < m; b++) {
+      for (let b = 0, at = base; b < m; b++, at += cols) {
         const w = df * bp[b]!;
-        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]!;
-        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]!;
+        dfr[at] = dfr[at]! + w * bc[b]!;
+        dfi[at] = dfi[at]! + w * bs[b]!;
       }
     } else if (de === 0 && dn === 0) {
-      for (let b = 0; b < m; b++) {
+      for (let b = 0, at = base; b < m; b++, at += cols) {
         // d flux * P + flux dP/dr2 * dr2, times the phase
         const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
-        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]!;
-        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]!;
+        dfr[at] = dfr[at]! + w * bc[b]!;
+        dfi[at] = dfi[at]! + w * bs[b]!;
       }
     } else {
-      for (let b = 0; b < m; b++) {
+      for (let b = 0, at = base; b < m; b++, at += cols) {
         const w = df * bp[b]! + bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!);
         // d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
         const ws = bu[b]! * de + bv[b]! * dn;
-        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]! + ws * tim[b]!;
-        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]! - ws * tre[b]!;
+        dfr[at] = dfr[at]! + w * bc[b]! + ws * tim[b]!;
+        dfi[at] = dfi[at]! + w * bs[b]! - ws * tre[b]!;
       }
     }
   }
@@ -792,14 +809,14 @@ function blockTerm(
       }
     }
     if (!t.shifted && de === 0 && dn === 0) {
-      for (let b = 0; b < m; b++) dfr[base + b * cols] = dfr[base + b * cols]! + bw[b]!;
+      for (let b = 0, at = base; b < m; b++, at += cols) dfr[at] = dfr[at]! + bw[b]!;
     } else {
-      for (let b = 0; b < m; b++) {
+      for (let b = 0, at = base; b < m; b++, at += cols) {
         // phase part: d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
         const w = bw[b]!;
         const ws = bu[b]! * de + bv[b]! * dn;
-        dfr[base + b * cols] = dfr[base + b * cols]! + w * bc[b]! + ws * tim[b]!;
-        dfi[base + b * cols] = dfi[base + b * cols]! + w * bs[b]! - ws * tre[b]!;
+        dfr[at] = dfr[at]! + w * bc[b]! + ws * tim[b]!;
+        dfi[at] = dfi[at]! + w * bs[b]! - ws * tre[b]!;
       }
     }
   }

@@ -20,7 +20,7 @@ import { InputError, ModelError } from '../errors.js';
 import { canonicalise } from '../model/canonical.js';
 import { hasChromaticSlot } from '../model/chromatic-slot.js';
 import type { Model } from '../model/model.js';
-import { DEG_PER_RAD, frequencyColumn } from '../units/index.js';
+import { boundedFrequencyColumn, DEG_PER_RAD, frequencyColumn } from '../units/index.js';
 import {
   type ChromaticOptions,
   channelSamples,
@@ -304,8 +304,10 @@ export function visibilityJacobian(
   out?: JacobianBuffers,
 ): VisibilityJacobian {
   const fn = 'visibilityJacobian';
-  const uu = frequencyColumn(u, fn, 'u');
-  const vv = frequencyColumn(v, fn, 'v');
+  const bu = boundedFrequencyColumn(u, fn, 'u');
+  const bv = boundedFrequencyColumn(v, fn, 'v');
+  const uu = bu.column;
+  const vv = bv.column;
   if (uu.length !== vv.length) {
     throw new InputError(
       `${fn}: u has ${uu.length} entries but v has ${vv.length}; give arrays of equal length`,
@@ -336,7 +338,7 @@ export function visibilityJacobian(
   const im = buf(out?.im, n, 'im');
   const dre = buf(out?.dre, n * cols, 'dre');
   const dim = buf(out?.dim, n * cols, 'dim');
-  runJacobian(plan, uu, vv, re, im, dre, dim, n);
+  runJacobian(plan, uu, vv, re, im, dre, dim, n, bu.maxAbs, bv.maxAbs);
   return { parameters: model.parameters(), rows: n, cols, re, im, dre, dim };
 }
 
