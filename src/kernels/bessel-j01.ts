@@ -156,7 +156,7 @@ export function besselJ2(x: number): number {
  *
  * Notes: below |x| = 2 it is the polynomial 1 + 2 x^2 B1(x^2) in x^2 (the power series of A&S 9.1.10
  * economised), so small x loses nothing to cancellation and x = 0 gives exactly 1; from 2 to HANKEL_START
- * (48) a polynomial per unit interval fitted to 2 J1(x) / x itself; above, 2 J1(|x|) / |x|.
+ * (48) a polynomial per half-unit piece fitted to 2 J1(x) / x itself; above, 2 J1(|x|) / |x|.
  * Absolute error below 1e-15. The uniform-disk formula is that of e.g. Berger & Segransan 2007.
  *
  * @example

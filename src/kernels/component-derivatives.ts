@@ -95,7 +95,7 @@ export function l3(x: number): number {
  *
  * Notes: d/dx L_nu = -x L_{nu+1} / (2 (nu + 1)) (A&S 9.1.30) and dx/dr2 = pi^2 / (2x), so
  * dL_nu/dr2 = -pi^2 L_{nu+1} / (4 (nu + 1)): the slopes need L_2 = 8 J2/x^2, L_{5/2} and L_3. dP/dc_k is the
- * basis function itself. For 2 <= x < HANKEL_START all five come from their unit-interval tables
+ * basis function itself. For 2 <= x < HANKEL_START all five come from their half-unit-piece tables
  * (bessel-coefficients.ts, error of each below 7e-17), elsewhere from the closed forms and series.
  */
 export function limbDarkenedDerivatives(r2: number, p: Float64Array, out: Float64Array): void {
@@ -105,7 +105,7 @@ export function limbDarkenedDerivatives(r2: number, p: Float64Array, out: Float6
   const quadratic = p.length > 2;
   const c2 = quadratic ? p[2]! : 0;
   if (x >= 2 && x < HANKEL_START) {
-    // every basis function from its unit-interval table (bessel-coefficients.ts), one piece index for all
+    // every basis function from its half-unit-piece table (bessel-coefficients.ts), one piece index for all
     const k = pieceIndex(x);
     const t = pieceLocal(x, k);
     const d = basisPiece(DISK_PIECES, k, t);

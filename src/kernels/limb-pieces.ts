@@ -1,6 +1,6 @@
 /**
- * Limb-darkened disks on the unit-interval tables: a law's visibility c1 D(x) + c32 L(x) + c2 W(x) (see
- * limbDarkenedCoefficients in components.ts) is, on each piece [k, k + 1] with 2 <= k < HANKEL_START, one
+ * Limb-darkened disks on the half-unit-piece tables: a law's visibility c1 D(x) + c32 L(x) + c2 W(x) (see
+ * limbDarkenedCoefficients in components.ts) is, on each half-unit piece [2 + j/2, 2.5 + j/2] below HANKEL_START, one
  * polynomial whose coefficients are the same combination of the basis tables' coefficients. A plan adds the
  * tables once for its law, and each point then costs one polynomial instead of three.
  *
@@ -8,7 +8,7 @@
  */
 import { DISK_PIECES, L32_PIECES, W2_PIECES } from './bessel-coefficients.js';
 
-/** Piece k of a table such as {@link limbPieces} gives, at t = x - (k + 5/2) (generated with the tables). */
+/** Piece j of a table such as {@link limbPieces} gives, at t = pieceLocal(x, j) (generated with the tables). */
 export { basisPiece } from './bessel-coefficients.js';
 
 /**

@@ -407,7 +407,7 @@ export function addRadialProductTerm(
 }
 
 /**
- * A limb-darkened disk's visibility where the unit-interval tables do not reach: x < 2 through
+ * A limb-darkened disk's visibility where the half-unit-piece tables do not reach: x < 2 through
  * `quadraticLimbAmplitude` (components.ts), x >= HANKEL_START from 2 J1(x)/x, sin x - x cos x (one shared
  * argument reduction, trig.ts) and J0. Kept out of the per-point loop of {@link addLimbDarkenedTerm}, whose
  * common case is the table polynomial, so that the loop's body stays small.

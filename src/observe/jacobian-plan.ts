@@ -49,7 +49,7 @@ const GK = GAUSS_K;
 const diskP = diskPiece;
 const j0P = j0Piece;
 const w2P = w2Piece;
-/** Where besselJ0 and besselJ1 leave their unit-interval polynomials for Hankel's form (bessel-j01.ts). */
+/** Where besselJ0 and besselJ1 leave their half-unit-piece polynomials for Hankel's form (bessel-j01.ts). */
 const PIECES_END = HANKEL_START;
 
 /** Factor codes of the per-point loop: the three foundation kinds inline, then any radial, then complex. */
