@@ -36,8 +36,6 @@ import {
   q1Hankel,
 } from './bessel-coefficients.js';
 
-export { HANKEL_START } from './bessel-coefficients.js';
-
 import { cosSinCombination } from './trig.js';
 
 /** Upper end of the near-zero polynomials in x^2. */

@@ -98,31 +98,6 @@ export function phaseNeedsSplit(uMax: number, vMax: number, e: number, n: number
   return !(uMax * Math.abs(e) + vMax * Math.abs(n) <= PLAIN_PHASE_TURNS);
 }
 
-/**
- * Largest |x| over x[start..end) (NaN when one is NaN, so that {@link phaseNeedsSplit} then says true).
- *
- * @param x - a column
- * @param start - first index
- * @param end - one past the last index
- *
- * Notes: four independent Math.max chains (branch-free; Math.max passes NaN on).
- */
-export function maxAbs(x: Float64Array, start: number, end: number): number {
-  let m0 = 0;
-  let m1 = 0;
-  let m2 = 0;
-  let m3 = 0;
-  let i = start;
-  for (; i + 3 < end; i += 4) {
-    m0 = Math.max(m0, Math.abs(x[i]!));
-    m1 = Math.max(m1, Math.abs(x[i + 1]!));
-    m2 = Math.max(m2, Math.abs(x[i + 2]!));
-    m3 = Math.max(m3, Math.abs(x[i + 3]!));
-  }
-  for (; i < end; i++) m0 = Math.max(m0, Math.abs(x[i]!));
-  return Math.max(m0, m1, m2, m3);
-}
-
 /** 2^27 + 1: Veltkamp's constant that splits a binary64 number into two halves of 26 bits. */
 const SPLITTER = 134217729;
 

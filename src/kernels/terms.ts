@@ -18,7 +18,6 @@ import {
   sinCosTurns as sinCosTurnsImport,
   splitHead,
 } from './sincos.js';
-import { cosSinCombination as cosSinCombinationImport } from './trig.js';
 
 // Every loop below copies the imported kernels and the SIN_COS buffer into locals before it starts: a read of
 // an imported binding inside a hot loop is a module-cell load with a check that the binding is initialised,
@@ -407,19 +406,6 @@ export function addRadialProductTerm(
 }
 
 /**
- * A limb-darkened disk's visibility where the half-unit-piece tables do not reach: x < 2 through
- * `quadraticLimbAmplitude` (components.ts), x >= HANKEL_START from 2 J1(x)/x, sin x - x cos x (one shared
- * argument reduction, trig.ts) and J0. Kept out of the per-point loop of {@link addLimbDarkenedTerm}, whose
- * common case is the table polynomial, so that the loop's body stays small.
- */
-function limbOutsidePieces(x: number, c1: number, c32: number, c2: number): number {
-  if (x < 2) return quadraticLimbAmplitudeImport(x, c1, c32, c2);
-  const d = diskAmplitudeImport(x);
-  const l32 = (3 * cosSinCombinationImport(x, -x, 1)) / (x * x * x);
-  return c1 * d + c32 * l32 + (c2 === 0 ? 0 : (8 * c2 * (d - besselJ0Import(x))) / (x * x));
-}
-
-/**
  * Adds a term with one linearly or quadratically limb-darkened disk factor,
  * `flux * V_LD(pi sqrt(q^T M q)) * exp(-2 pi i (u e0 + v n0))`, in one pass.
  *
@@ -442,11 +428,10 @@ function limbOutsidePieces(x: number, c1: number, c32: number, c2: number): numb
  * @param c2 - weight of 8 J2(x)/x^2 (0 for the linear law)
  * @param pieces - the law's table on the unit pieces, limbPieces(c1, c32, c2) (limb-pieces.ts)
  *
- * Notes: below x = 2 it calls `quadraticLimbAmplitude` of components.ts itself; from 2 to HANKEL_START (48)
- * the whole law is one polynomial per unit piece (`pieces`, the basis tables of bessel-coefficients.ts added
- * with the law's weights; error of each basis polynomial below 4e-17); beyond, 2 J1(x)/x from diskAmplitude and sin x - x cos x from
- * `cosSinCombination` (one argument reduction shared by both, error below 2e-16 (1 + x)). The two agree to about 1e-16
- * (tests/model/limb-darkening.test.ts checks the values against closed forms to 2e-14).
+ * Notes: from 2 to HANKEL_START (48) the whole law is one polynomial per piece (`pieces`, the basis tables of
+ * bessel-coefficients.ts added with the law's weights; error of each basis polynomial below 6e-17); elsewhere it
+ * calls `quadraticLimbAmplitude` of components.ts (series below 2, closed forms beyond 48). The two agree to
+ * about 1e-16 (tests/model/limb-darkening.test.ts checks the values against closed forms to 2e-14).
  */
 export function addLimbDarkenedTerm(
   re: Float64Array,
@@ -474,7 +459,7 @@ export function addLimbDarkenedTerm(
   const nh = splitHead(n0);
   const nl = n0 - nh;
   const SIN_COS = SIN_COS_IMPORT;
-  const outside = limbOutsidePieces;
+  const outside = quadraticLimbAmplitudeImport;
   const basisPiece = basisPieceImport;
   const m12x2 = 2 * m12;
   const shifted = e0 !== 0 || n0 !== 0;
@@ -488,7 +473,7 @@ export function addLimbDarkenedTerm(
       // the law's own polynomial on the piece (limbPieces): c1 D + c32 L + c2 W in one evaluation
       const j = pieceIndex(x);
       p = basisPiece(pieces, j, pieceLocal(x, j));
-    } else p = outside(x, c1, c32, c2); // near the centre and beyond the tables: out of the loop's body
+    } else p = outside(x, c1, c32, c2); // near the centre and beyond the tables (closed forms, series)
     const a = flux * p;
     if (shifted) {
       if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);

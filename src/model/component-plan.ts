@@ -24,8 +24,9 @@ import {
   RADIAL_QUADRATIC_LD,
   RADIAL_TABLE,
 } from '../kernels/components.js';
-import { maxAbs, phaseNeedsSplit } from '../kernels/sincos.js';
+import { phaseNeedsSplit } from '../kernels/sincos.js';
 import { addAmplitudeTerm, mulRadial } from '../kernels/terms.js';
+import { maxAbs } from '../units/index.js';
 import type { ComponentFactorKind } from './component-canonical.js';
 
 /** Kernel code of each extended factor kind. */

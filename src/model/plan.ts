@@ -7,7 +7,7 @@
 import { ModelError } from '../errors.js';
 import { RADIAL_LINEAR_LD, RADIAL_QUADRATIC_LD } from '../kernels/components.js';
 import { limbPieces } from '../kernels/limb-pieces.js';
-import { maxAbs, phaseNeedsSplit } from '../kernels/sincos.js';
+import { phaseNeedsSplit } from '../kernels/sincos.js';
 import {
   addLimbDarkenedTerm,
   addPointTerm,
@@ -17,7 +17,7 @@ import {
   RADIAL_THIN_RING,
   RADIAL_UNIFORM_DISK,
 } from '../kernels/terms.js';
-import { RAD_PER_MAS } from '../units/index.js';
+import { maxAbs, RAD_PER_MAS } from '../units/index.js';
 import type { DualTerm, FactorKind } from './canonical.js';
 import {
   addComponentTerm,

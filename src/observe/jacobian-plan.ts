@@ -24,12 +24,12 @@ import {
 } from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
-import { maxAbs, phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
+import { phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
 import { GAUSS_K } from '../kernels/terms.js';
 import type { DualTerm } from '../model/canonical.js';
 import type { Dual } from '../model/dual.js';
 import { checkTotalFlux } from '../model/plan.js';
-import { RAD_PER_MAS } from '../units/index.js';
+import { maxAbs, RAD_PER_MAS } from '../units/index.js';
 import { DERIVATIVE_KERNELS, kindCoefficients } from './jacobian-kinds.js';
 
 const TWO_PI = 2 * Math.PI;
@@ -453,7 +453,11 @@ export function runJacobian(
   }
 }
 
-/** A term with at most one factor and no kernel coefficients, over the m points of a block. */
+/**
+ * A term with at most one factor and no kernel coefficients, over the m points of a block. blockTerm handles
+ * these terms too; this specialisation (flux folded into the slope, no per-factor scratch, a loop per kind of
+ * parameter) measured about 12 % faster on benchmarks/jacobian.bench.ts, so it stays.
+ */
 function simpleTerm(
   t: JTerm,
   m: number,

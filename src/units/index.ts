@@ -102,25 +102,30 @@ export function wrapRadians(rad: number): number {
 }
 
 /**
- * The largest |x| of a column, or NaN when an entry is NaN and Infinity when one is infinite: four independent
- * Math.max chains (branch-free; a loop with a test per entry measured about four times slower). One pass gives
- * both the finiteness check of the inputs and the bound on |u|, |v| that the phase ramps need.
- * @param a - a column
+ * Largest |x| over x[start..end): NaN when an entry is NaN and Infinity when one is infinite, so one pass
+ * gives both the finiteness check of the inputs and the bound on |u|, |v| that the phase ramps need
+ * (phaseNeedsSplit in kernels/sincos.ts says true for NaN).
+ *
+ * @param x - a column
+ * @param start - first index
+ * @param end - one past the last index
+ *
+ * Notes: four independent Math.max chains (branch-free; Math.max passes NaN on); a loop with a test per entry
+ * measured about four times slower.
  */
-export function maxAbsOrNaN(a: Float64Array): number {
-  const n = a.length;
+export function maxAbs(x: Float64Array, start: number, end: number): number {
   let m0 = 0;
   let m1 = 0;
   let m2 = 0;
   let m3 = 0;
-  let i = 0;
-  for (; i + 3 < n; i += 4) {
-    m0 = Math.max(m0, Math.abs(a[i]!));
-    m1 = Math.max(m1, Math.abs(a[i + 1]!));
-    m2 = Math.max(m2, Math.abs(a[i + 2]!));
-    m3 = Math.max(m3, Math.abs(a[i + 3]!));
+  let i = start;
+  for (; i + 3 < end; i += 4) {
+    m0 = Math.max(m0, Math.abs(x[i]!));
+    m1 = Math.max(m1, Math.abs(x[i + 1]!));
+    m2 = Math.max(m2, Math.abs(x[i + 2]!));
+    m3 = Math.max(m3, Math.abs(x[i + 3]!));
   }
-  for (; i < n; i++) m0 = Math.max(m0, Math.abs(a[i]!));
+  for (; i < end; i++) m0 = Math.max(m0, Math.abs(x[i]!));
   return Math.max(m0, m1, m2, m3);
 }
 
@@ -155,7 +160,7 @@ export function boundedFrequencyColumn(
     throw new InputError(`${fn}: ${name} must be an array or typed array of numbers`, { argument: name });
   }
   const a = x instanceof Float64Array ? x : Float64Array.from(x);
-  const m = maxAbsOrNaN(a);
+  const m = maxAbs(a, 0, a.length);
   if (m < Number.POSITIVE_INFINITY) return { column: a, maxAbs: m };
   for (let i = 0; i < a.length; i++) {
     const t = a[i]!;
