@@ -6,12 +6,17 @@
  * Layout: complex numbers are held as separate `re` and `im` Float64Arrays of equal length.
  * Units: u, v in cycles per radian; quadratic forms M = A A^T in rad^2; shifts e0, n0 in radians.
  *
+ * The block kernels (addPointTerm, addRadialTerm, addRadialProductTerm, addLimbDarkenedTerm) take the shift as
+ * its phase ramp, already computed for the block by ramp.ts: `ramp.sin[j]`, `ramp.cos[j]` belong to the point
+ * start + j; a null ramp means the term is not shifted.
+ *
  * @module
  */
 import { besselJ0 as besselJ0Import, diskAmplitude as diskAmplitudeImport } from './bessel.js';
 import { HANKEL_START as PIECES_END, pieceIndex, pieceLocal } from './bessel-coefficients.js';
 import { quadraticLimbAmplitude as quadraticLimbAmplitudeImport } from './components.js';
 import { basisPiece as basisPieceImport } from './limb-pieces.js';
+import type { RampBlock } from './ramp.js';
 import {
   SIN_COS as SIN_COS_IMPORT,
   sinCosPhase as sinCosPhaseImport,
@@ -34,49 +39,33 @@ export const RADIAL_GAUSSIAN = 1;
 export const RADIAL_THIN_RING = 2;
 
 /**
- * Adds the phase ramp of a shifted term without size, `flux * exp(-2 pi i (u e0 + v n0))`.
+ * Adds a term without size, `flux * exp(-2 pi i (u e0 + v n0))`, from its phase ramp.
  *
- * Notes: the phase is reduced in turns (exactly) before it is turned into radians. With `exact` the products
- * u e0 and v n0 are split so that the phase keeps about 1e-16 turns whatever its size ({@link sinCosPhase});
- * without, the plain u e0 + v n0 costs at most 3 * 2^-53 of the phase (the caller guarantees that this is
- * below 2.1e-14 turns, phaseNeedsSplit in sincos.ts).
+ * @param re - real parts to add into
+ * @param im - imaginary parts to add into
+ * @param start - first point
+ * @param end - one past the last point
+ * @param flux - term flux
+ * @param ramp - the block's phase ramp of the term's shift (sin and cos of 2 pi (u e0 + v n0) at start + j),
+ *   or null for a term at the origin
  */
 export function addPointTerm(
   re: Float64Array,
   im: Float64Array,
-  u: Float64Array,
-  v: Float64Array,
   start: number,
   end: number,
   flux: number,
-  e0: number,
-  n0: number,
-  exact: boolean,
+  ramp: RampBlock | null,
 ): void {
-  const sinCosPhase = sinCosPhaseImport;
-  const sinCosTurns = sinCosTurnsImport;
-  const eh = splitHead(e0);
-  const el = e0 - eh;
-  const nh = splitHead(n0);
-  const nl = n0 - nh;
-  const SIN_COS = SIN_COS_IMPORT;
-  if (e0 === 0 && n0 === 0) {
+  if (ramp === null) {
     for (let i = start; i < end; i++) re[i] = re[i]! + flux;
     return;
   }
-  if (exact) {
-    for (let i = start; i < end; i++) {
-      sinCosPhase(u[i]!, v[i]!, eh, el, nh, nl);
-      re[i] = re[i]! + flux * SIN_COS[1]!;
-      im[i] = im[i]! - flux * SIN_COS[0]!;
-    }
-    return;
-  }
-  // the plain phase (most shifts of most blocks): a loop of its own, without the branch on exact
-  for (let i = start; i < end; i++) {
-    sinCosTurns(u[i]! * e0 + v[i]! * n0);
-    re[i] = re[i]! + flux * SIN_COS[1]!;
-    im[i] = im[i]! - flux * SIN_COS[0]!;
+  const sn = ramp.sin;
+  const cs = ramp.cos;
+  for (let i = start, j = 0; i < end; i++, j++) {
+    re[i] = re[i]! + flux * cs[j]!;
+    im[i] = im[i]! - flux * sn[j]!;
   }
 }
 
@@ -140,8 +129,21 @@ export function mulRadial(
 /**
  * Adds a term with one radial factor: `flux * P(r) * exp(-2 pi i (u e0 + v n0))`, fused in one pass.
  *
- * Notes: this is the hot path of most models (one shifted disk, Gaussian or ring); it needs one kernel call and,
- * when the term is shifted, one sin and one cos per point.
+ * @param code - one of the RADIAL_* codes
+ * @param re - real parts to add into
+ * @param im - imaginary parts to add into
+ * @param u - spatial frequencies east (cycles/rad)
+ * @param v - spatial frequencies north (cycles/rad)
+ * @param start - first point
+ * @param end - one past the last point
+ * @param flux - term flux
+ * @param m11 - quadratic form entries of M = A A^T (rad^2)
+ * @param m12 - off-diagonal entry
+ * @param m22 - second diagonal entry
+ * @param ramp - the block's phase ramp of the shift (index j for the point start + j), or null when unshifted
+ *
+ * Notes: this is the hot path of most models (one shifted disk, Gaussian or ring): one kernel call per point,
+ * the phase ramp read from the block's columns.
  */
 export function addRadialTerm(
   code: number,
@@ -155,33 +157,23 @@ export function addRadialTerm(
   m11: number,
   m12: number,
   m22: number,
-  e0: number,
-  n0: number,
-  exact: boolean,
+  ramp: RampBlock | null,
 ): void {
-  const sinCosPhase = sinCosPhaseImport;
-  const sinCosTurns = sinCosTurnsImport;
-  const eh = splitHead(e0);
-  const el = e0 - eh;
-  const nh = splitHead(n0);
-  const nl = n0 - nh;
-  const SIN_COS = SIN_COS_IMPORT;
   const diskAmplitude = diskAmplitudeImport;
   const besselJ0 = besselJ0Import;
   const m12x2 = 2 * m12;
-  const shifted = e0 !== 0 || n0 !== 0;
+  const sn = ramp === null ? null : ramp.sin;
+  const cs = ramp === null ? null : ramp.cos;
   switch (code) {
     case RADIAL_UNIFORM_DISK:
-      if (shifted) {
-        for (let i = start; i < end; i++) {
+      if (sn !== null && cs !== null) {
+        for (let i = start, j = 0; i < end; i++, j++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * diskAmplitude(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
-          else sinCosTurns(uu * e0 + vv * n0);
-          re[i] = re[i]! + a * SIN_COS[1]!;
-          im[i] = im[i]! - a * SIN_COS[0]!;
+          re[i] = re[i]! + a * cs[j]!;
+          im[i] = im[i]! - a * sn[j]!;
         }
       } else {
         for (let i = start; i < end; i++) {
@@ -193,16 +185,14 @@ export function addRadialTerm(
       }
       return;
     case RADIAL_GAUSSIAN:
-      if (shifted) {
-        for (let i = start; i < end; i++) {
+      if (sn !== null && cs !== null) {
+        for (let i = start, j = 0; i < end; i++, j++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
-          if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
-          else sinCosTurns(uu * e0 + vv * n0);
-          re[i] = re[i]! + a * SIN_COS[1]!;
-          im[i] = im[i]! - a * SIN_COS[0]!;
+          re[i] = re[i]! + a * cs[j]!;
+          im[i] = im[i]! - a * sn[j]!;
         }
       } else {
         for (let i = start; i < end; i++) {
@@ -214,16 +204,14 @@ export function addRadialTerm(
       }
       return;
     case RADIAL_THIN_RING:
-      if (shifted) {
-        for (let i = start; i < end; i++) {
+      if (sn !== null && cs !== null) {
+        for (let i = start, j = 0; i < end; i++, j++) {
           const uu = u[i]!;
           const vv = v[i]!;
           const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
           const a = flux * besselJ0(Math.PI * Math.sqrt(r2 > 0 ? r2 : 0));
-          if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
-          else sinCosTurns(uu * e0 + vv * n0);
-          re[i] = re[i]! + a * SIN_COS[1]!;
-          im[i] = im[i]! - a * SIN_COS[0]!;
+          re[i] = re[i]! + a * cs[j]!;
+          im[i] = im[i]! - a * sn[j]!;
         }
       } else {
         for (let i = start; i < end; i++) {
@@ -313,10 +301,7 @@ export function addAmplitudeTerm(
  * @param start - first point
  * @param end - one past the last point
  * @param flux - term flux
- * @param e0 - shift east, rad
- * @param n0 - shift north, rad
- * @param exact - whether the phase needs {@link sinCosPhase} (see phaseNeedsSplit in sincos.ts); otherwise
- *   sinCosTurns(u e0 + v n0) is accurate enough
+ * @param ramp - the block's phase ramp of the shift (index j for the point start + j), or null when unshifted
  * @param ratio - for two factors whose forms are proportional to rounding (M_1 = ratio M_0, compilePlan finds
  *   them), the ratio, so that one form serves both; NaN otherwise
  *
@@ -334,21 +319,13 @@ export function addRadialProductTerm(
   start: number,
   end: number,
   flux: number,
-  e0: number,
-  n0: number,
-  exact: boolean,
+  ramp: RampBlock | null,
   ratio = Number.NaN,
 ): void {
-  const sinCosPhase = sinCosPhaseImport;
-  const sinCosTurns = sinCosTurnsImport;
-  const eh = splitHead(e0);
-  const el = e0 - eh;
-  const nh = splitHead(n0);
-  const nl = n0 - nh;
-  const SIN_COS = SIN_COS_IMPORT;
   const diskAmplitude = diskAmplitudeImport;
   const besselJ0 = besselJ0Import;
-  const shifted = e0 !== 0 || n0 !== 0;
+  const sn = ramp === null ? null : ramp.sin;
+  const cs = ramp === null ? null : ramp.cos;
   for (let f = 0; f < nf; f++) {
     const c = codes[f]!;
     if (c !== RADIAL_UNIFORM_DISK && c !== RADIAL_GAUSSIAN && c !== RADIAL_THIN_RING) {
@@ -367,22 +344,20 @@ export function addRadialProductTerm(
     const b22 = m[5]!;
     // a blurred ring or disk: both factors seen through one map, so M_1 = ratio M_0 and one form serves both
     const proportional = !Number.isNaN(ratio);
-    for (let i = start; i < end; i++) {
+    for (let i = start, j = 0; i < end; i++, j++) {
       const uu = u[i]!;
       const vv = v[i]!;
       const r2a = a11 * uu * uu + a12 * uu * vv + a22 * vv * vv;
       const r2b = proportional ? ratio * r2a : b11 * uu * uu + b12 * uu * vv + b22 * vv * vv;
       const a = flux * k0(r2a > 0 ? r2a : 0) * k1(r2b > 0 ? r2b : 0);
-      if (shifted) {
-        if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
-        else sinCosTurns(uu * e0 + vv * n0);
-        re[i] = re[i]! + a * SIN_COS[1]!;
-        im[i] = im[i]! - a * SIN_COS[0]!;
+      if (sn !== null && cs !== null) {
+        re[i] = re[i]! + a * cs[j]!;
+        im[i] = im[i]! - a * sn[j]!;
       } else re[i] = re[i]! + a;
     }
     return;
   }
-  for (let i = start; i < end; i++) {
+  for (let i = start, j = 0; i < end; i++, j++) {
     const uu = u[i]!;
     const vv = v[i]!;
     let a = flux;
@@ -396,11 +371,9 @@ export function addRadialProductTerm(
       else if (c === RADIAL_UNIFORM_DISK) a *= diskAmplitude(Math.PI * Math.sqrt(r2));
       else a *= besselJ0(Math.PI * Math.sqrt(r2));
     }
-    if (shifted) {
-      if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
-      else sinCosTurns(uu * e0 + vv * n0);
-      re[i] = re[i]! + a * SIN_COS[1]!;
-      im[i] = im[i]! - a * SIN_COS[0]!;
+    if (sn !== null && cs !== null) {
+      re[i] = re[i]! + a * cs[j]!;
+      im[i] = im[i]! - a * sn[j]!;
     } else re[i] = re[i]! + a;
   }
 }
@@ -419,14 +392,11 @@ export function addRadialProductTerm(
  * @param m11 - M = A A^T entries (rad^2)
  * @param m12 - off-diagonal entry
  * @param m22 - second diagonal entry
- * @param e0 - shift east, rad
- * @param n0 - shift north, rad
- * @param exact - whether the phase needs {@link sinCosPhase} (see phaseNeedsSplit in sincos.ts); otherwise
- *   sinCosTurns(u e0 + v n0) is accurate enough
  * @param c1 - weight of 2 J1(x)/x (see limbDarkenedCoefficients in components.ts)
  * @param c32 - weight of L_{3/2}(x) = 3 (sin x - x cos x) / x^3
  * @param c2 - weight of 8 J2(x)/x^2 (0 for the linear law)
  * @param pieces - the law's table on the unit pieces, limbPieces(c1, c32, c2) (limb-pieces.ts)
+ * @param ramp - the block's phase ramp of the shift (index j for the point start + j), or null when unshifted
  *
  * Notes: from 2 to HANKEL_START (48) the whole law is one polynomial per piece (`pieces`, the basis tables of
  * bessel-coefficients.ts added with the law's weights; error of each basis polynomial below 6e-17); elsewhere it
@@ -444,26 +414,18 @@ export function addLimbDarkenedTerm(
   m11: number,
   m12: number,
   m22: number,
-  e0: number,
-  n0: number,
   c1: number,
   c32: number,
   c2: number,
   pieces: Float64Array,
-  exact: boolean,
+  ramp: RampBlock | null,
 ): void {
-  const sinCosPhase = sinCosPhaseImport;
-  const sinCosTurns = sinCosTurnsImport;
-  const eh = splitHead(e0);
-  const el = e0 - eh;
-  const nh = splitHead(n0);
-  const nl = n0 - nh;
-  const SIN_COS = SIN_COS_IMPORT;
   const outside = quadraticLimbAmplitudeImport;
   const basisPiece = basisPieceImport;
   const m12x2 = 2 * m12;
-  const shifted = e0 !== 0 || n0 !== 0;
-  for (let i = start; i < end; i++) {
+  const sn = ramp === null ? null : ramp.sin;
+  const cs = ramp === null ? null : ramp.cos;
+  for (let i = start, j = 0; i < end; i++, j++) {
     const uu = u[i]!;
     const vv = v[i]!;
     const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
@@ -471,15 +433,13 @@ export function addLimbDarkenedTerm(
     let p: number;
     if (x >= 2 && x < PIECES_END) {
       // the law's own polynomial on the piece (limbPieces): c1 D + c32 L + c2 W in one evaluation
-      const j = pieceIndex(x);
-      p = basisPiece(pieces, j, pieceLocal(x, j));
+      const k = pieceIndex(x);
+      p = basisPiece(pieces, k, pieceLocal(x, k));
     } else p = outside(x, c1, c32, c2); // near the centre and beyond the tables (closed forms, series)
     const a = flux * p;
-    if (shifted) {
-      if (exact) sinCosPhase(uu, vv, eh, el, nh, nl);
-      else sinCosTurns(uu * e0 + vv * n0);
-      re[i] = re[i]! + a * SIN_COS[1]!;
-      im[i] = im[i]! - a * SIN_COS[0]!;
+    if (sn !== null && cs !== null) {
+      re[i] = re[i]! + a * cs[j]!;
+      im[i] = im[i]! - a * sn[j]!;
     } else re[i] = re[i]! + a;
   }
 }

@@ -7,7 +7,8 @@
 import { ModelError } from '../errors.js';
 import { RADIAL_LINEAR_LD, RADIAL_QUADRATIC_LD } from '../kernels/components.js';
 import { limbPieces } from '../kernels/limb-pieces.js';
-import { phaseNeedsSplit } from '../kernels/sincos.js';
+import { loadRampBlock, phaseRampPlain, phaseRampSplit, RAMP_BLOCK, rampBlock } from '../kernels/ramp.js';
+import { phaseNeedsSplit, splitHead } from '../kernels/sincos.js';
 import {
   addLimbDarkenedTerm,
   addPointTerm,
@@ -189,7 +190,7 @@ export function checkTotalFlux(total: number, absTotal: number, path: string): v
  * Points per block of {@link runPlan}: the block's u, v, re and im (32 kB) stay in the first- or second-level
  * cache while every term adds into them, instead of one pass over the whole columns per term.
  */
-export const PLAN_BLOCK = 1024;
+export const PLAN_BLOCK = RAMP_BLOCK;
 
 /**
  * Evaluates the normalised complex visibility of a plan into `re`, `im`.
@@ -225,27 +226,49 @@ export function runPlan(
   // the largest |u|, |v| of each block decide between the plain and the split phase, unless bounds over all
   // points (the caller's, from its finiteness check) already say that no term needs the split one
   let perBlock = false;
-  for (const t of terms) {
+  let anyShift = false;
+  // heads and tails of each term's shift (splitHead), for the split phase
+  const split = new Float64Array(4 * terms.length);
+  for (let j = 0; j < terms.length; j++) {
+    const t = terms[j]!;
     if (t.component === true) late = true;
-    if ((t.e0 !== 0 || t.n0 !== 0) && phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
+    else if (t.e0 !== 0 || t.n0 !== 0) {
+      anyShift = true;
+      if (phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
+    }
+    const eh = splitHead(t.e0);
+    const nh = splitHead(t.n0);
+    split[4 * j] = eh;
+    split[4 * j + 1] = t.e0 - eh;
+    split[4 * j + 2] = nh;
+    split[4 * j + 3] = t.n0 - nh;
   }
+  // the phase ramps of a block come from ramp.ts (WebAssembly SIMD where it runs), one call per shifted term
+  const rb = anyShift ? rampBlock() : null;
   // without extended components every term is added already normalised (flux / total), with no last pass
   const scale = late ? 1 : k;
   for (let b0 = 0; b0 < n; b0 += PLAN_BLOCK) {
     const b1 = b0 + PLAN_BLOCK < n ? b0 + PLAN_BLOCK : n;
+    const len = b1 - b0;
     re.fill(0, b0, b1);
     im.fill(0, b0, b1);
     const uMax = perBlock ? maxAbs(u, b0, b1) : uBound;
     const vMax = perBlock ? maxAbs(v, b0, b1) : vBound;
+    if (rb !== null) loadRampBlock(rb, u, v, b0, len);
     for (let j = 0; j < terms.length; j++) {
       const t = terms[j]!;
+      if (t.component === true) continue; // a term with other components: below, over all points
       const nf = t.factors.length;
       const f0 = t.factors[0];
-      const exact = phaseNeedsSplit(uMax, vMax, t.e0, t.n0);
       const flux = t.flux * scale;
-      if (t.component === true) {
-        // a term with other components: below, over all points
-      } else if (nf === 1 && (f0!.code === RADIAL_LINEAR_LD || f0!.code === RADIAL_QUADRATIC_LD)) {
+      let ramp = null;
+      if (rb !== null && (t.e0 !== 0 || t.n0 !== 0)) {
+        if (phaseNeedsSplit(uMax, vMax, t.e0, t.n0)) {
+          phaseRampSplit(rb, len, split[4 * j]!, split[4 * j + 1]!, split[4 * j + 2]!, split[4 * j + 3]!);
+        } else phaseRampPlain(rb, len, t.e0, t.n0);
+        ramp = rb;
+      }
+      if (nf === 1 && (f0!.code === RADIAL_LINEAR_LD || f0!.code === RADIAL_QUADRATIC_LD)) {
         const p = f0!.p;
         const c2 = f0!.code === RADIAL_QUADRATIC_LD ? p[2]! : 0;
         addLimbDarkenedTerm(
@@ -259,38 +282,21 @@ export function runPlan(
           f0!.m11,
           f0!.m12,
           f0!.m22,
-          t.e0,
-          t.n0,
           p[0]!,
           p[1]!,
           c2,
           t.limb!,
-          exact,
+          ramp,
         );
       } else if (nf === 0) {
-        addPointTerm(re, im, u, v, b0, b1, flux, t.e0, t.n0, exact);
+        addPointTerm(re, im, b0, b1, flux, ramp);
       } else if (nf === 1) {
         const f = f0!;
-        addRadialTerm(f.code, re, im, u, v, b0, b1, flux, f.m11, f.m12, f.m22, t.e0, t.n0, exact);
+        addRadialTerm(f.code, re, im, u, v, b0, b1, flux, f.m11, f.m12, f.m22, ramp);
       } else {
         // a product of foundation kinds (compilePlan packed it): one fused pass, no scratch
         const fused = t.fused!;
-        addRadialProductTerm(
-          fused.codes,
-          fused.m,
-          nf,
-          re,
-          im,
-          u,
-          v,
-          b0,
-          b1,
-          flux,
-          t.e0,
-          t.n0,
-          exact,
-          fused.ratio,
-        );
+        addRadialProductTerm(fused.codes, fused.m, nf, re, im, u, v, b0, b1, flux, ramp, fused.ratio);
       }
     }
   }

@@ -24,6 +24,7 @@ import {
 } from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
+import { loadRampBlock, phaseRampPlain, phaseRampSplit, type RampBlock, rampBlock } from '../kernels/ramp.js';
 import { phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
 import { GAUSS_K } from '../kernels/terms.js';
 import type { DualTerm } from '../model/canonical.js';
@@ -328,6 +329,8 @@ interface Scratch {
   /** Per block point: F (unnormalised). */
   readonly fre: Float64Array;
   readonly fim: Float64Array;
+  /** The phase-ramp columns (ramp.ts) when a term is shifted; u and v of the block are loaded into them. */
+  readonly ramp: RampBlock | null;
 }
 
 function scratchFor(plan: JPlan): Scratch {
@@ -358,6 +361,7 @@ function scratchFor(plan: JPlan): Scratch {
     bw: b(),
     fre: b(),
     fim: b(),
+    ramp: plan.terms.some((t) => t.shifted) ? rampBlock() : null,
   };
 }
 
@@ -412,6 +416,7 @@ export function runJacobian(
   for (const t of terms) if (t.shifted && phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
   for (let i0 = 0; i0 < n; i0 += BLOCK) {
     const m = Math.min(BLOCK, n - i0);
+    if (s.ramp !== null) loadRampBlock(s.ramp, u, v, i0, m);
     for (let b = 0; b < m; b++) {
       const uu = u[i0 + b]!;
       const vv = v[i0 + b]!;
@@ -548,23 +553,17 @@ function simpleTerm(
     const el = t.el;
     const nh = t.nh;
     const nl = t.nl;
-    // the phases first, one loop per form (no branch on exact inside), then the term
-    if (exact) {
-      for (let b = 0; b < m; b++) {
-        sinCosSplit(bu[b]!, bv[b]!, eh, el, nh, nl);
-        bc[b] = SC[1]!;
-        bs[b] = -SC[0]!;
-      }
-    } else {
-      for (let b = 0; b < m; b++) {
-        sinCos(bu[b]! * e0 + bv[b]! * n0);
-        bc[b] = SC[1]!;
-        bs[b] = -SC[0]!;
-      }
-    }
+    // the block's phases first (ramp.ts, u and v loaded by runJacobian), then the term
+    const rb = s.ramp!;
+    if (exact) phaseRampSplit(rb, m, eh, el, nh, nl);
+    else phaseRampPlain(rb, m, e0, n0);
+    const rsin = rb.sin;
+    const rcos = rb.cos;
     for (let b = 0; b < m; b++) {
-      const c = bc[b]!;
-      const sn = bs[b]!;
+      const c = rcos[b]!;
+      const sn = -rsin[b]!;
+      bc[b] = c;
+      bs[b] = sn;
       const a = flux * bp[b]!;
       tre[b] = a * c;
       tim[b] = a * sn;
@@ -724,13 +723,14 @@ function blockTerm(
     }
   }
   if (t.shifted) {
-    const e0 = t.e0;
-    const n0 = t.n0;
+    const rb = s.ramp!;
+    if (exact) phaseRampSplit(rb, m, t.eh, t.el, t.nh, t.nl);
+    else phaseRampPlain(rb, m, t.e0, t.n0);
+    const rsin = rb.sin;
+    const rcos = rb.cos;
     for (let b = 0; b < m; b++) {
-      if (exact) sinCosSplit(bu[b]!, bv[b]!, t.eh, t.el, t.nh, t.nl);
-      else sinCos(bu[b]! * e0 + bv[b]! * n0);
-      const c = SC[1]!;
-      const sn = -SC[0]!;
+      const c = rcos[b]!;
+      const sn = -rsin[b]!;
       const a = flux * bp[b]!;
       bc[b] = c;
       bs[b] = sn;

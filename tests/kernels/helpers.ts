@@ -83,3 +83,26 @@ export function* range(lo: number, hi: number, step: number): Generator<number> 
 export function derivative(f: (x: number) => number, x: number, h: number): number {
   return (f(x - 2 * h) - 8 * f(x - h) + 8 * f(x + h) - f(x + 2 * h)) / (12 * h);
 }
+
+/** Exact product a * b as a head and a tail (Dekker / Veltkamp splitting). */
+export function twoProduct(a: number, b: number): [number, number] {
+  const p = a * b;
+  const split = (x: number): [number, number] => {
+    const c = 134217729 * x;
+    const hi = c - (c - x);
+    return [hi, x - hi];
+  };
+  const [ah, al] = split(a);
+  const [bh, bl] = split(b);
+  return [p, ah * bh - p + ah * bl + al * bh + al * bl];
+}
+
+/** Fraction of u * e + v * n in turns, kept to about 1e-16 turns, as (-1/2, 1/2]. */
+export function exactTurns(u: number, e: number, v: number, n: number): number {
+  const [p1, e1] = twoProduct(u, e);
+  const [p2, e2] = twoProduct(v, n);
+  const f1 = p1 - Math.round(p1);
+  const f2 = p2 - Math.round(p2);
+  const t = f1 + f2 + (e1 + e2);
+  return t - Math.round(t);
+}

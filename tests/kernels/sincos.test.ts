@@ -2,34 +2,12 @@ import { describe, expect, it } from 'vitest';
 import { exponential, lorentzian, point, visibilityJacobian } from '../../src/index.js';
 import { PLAIN_PHASE_TURNS, phaseNeedsSplit, SIN_COS, sinCosTurns } from '../../src/kernels/sincos.js';
 import { RAD_PER_MAS } from '../../src/units/index.js';
+import { exactTurns } from './helpers.js';
 
 /** Absolute error allowed on sin and cos of a reduced phase (a few ulp of 1). */
 const SINCOS_TOL = 4e-16;
 /** Absolute error allowed on the phase ramp of a shift up to 1 arcsecond, rad. */
 const PHASE_TOL = 1e-12;
-
-/** Exact product a * b as a head and a tail (Dekker / Veltkamp splitting). */
-function twoProduct(a: number, b: number): [number, number] {
-  const p = a * b;
-  const split = (x: number): [number, number] => {
-    const c = 134217729 * x;
-    const hi = c - (c - x);
-    return [hi, x - hi];
-  };
-  const [ah, al] = split(a);
-  const [bh, bl] = split(b);
-  return [p, ah * bh - p + ah * bl + al * bh + al * bl];
-}
-
-/** Fraction of u * e + v * n in turns, kept to about 1e-16 turns, as (-1/2, 1/2]. */
-function exactTurns(u: number, e: number, v: number, n: number): number {
-  const [p1, e1] = twoProduct(u, e);
-  const [p2, e2] = twoProduct(v, n);
-  const f1 = p1 - Math.round(p1);
-  const f2 = p2 - Math.round(p2);
-  const t = f1 + f2 + (e1 + e2);
-  return t - Math.round(t);
-}
 
 describe('sinCosTurns', () => {
   it('matches Math.sin and Math.cos of the reduced phase to 4e-16 over many turns and all quadrants', () => {
