@@ -7,7 +7,7 @@
 import { disk, gaussian, param, point, sum, visibilityJacobian } from 'uvsky';
 
 const N = Number(process.argv[2] ?? 200_000);
-const REPEATS = 7;
+const REPEATS = 15;
 
 const model = sum(
   disk({ diameter: param('diameter', 1.8, { min: 0 }) }),
@@ -29,21 +29,6 @@ function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)]!;
 }
-function time(f: () => number): { ns: number; check: number } {
-  let check = f();
-  const ts: number[] = [];
-  for (let r = 0; r < REPEATS; r++) {
-    const t0 = process.hrtime.bigint();
-    check += f();
-    ts.push(Number(process.hrtime.bigint() - t0));
-  }
-  return { ns: median(ts), check };
-}
-
-const values = time(() => {
-  model.visibilities(u, v, out);
-  return out.re[N >> 1]!;
-});
 const cols = model.parameters().length;
 const jout = {
   re: new Float64Array(N),
@@ -51,10 +36,28 @@ const jout = {
   dre: new Float64Array(N * cols),
   dim: new Float64Array(N * cols),
 };
-const withJac = time(() => {
+const valuesOnce = () => {
+  model.visibilities(u, v, out);
+  return out.re[N >> 1]!;
+};
+const jacobianOnce = () => {
   const j = visibilityJacobian(model, u, v, undefined, jout);
   return j.dre[(N >> 1) * j.cols]! + j.re[0]!;
-});
+};
+// the two alternately (values, values + Jacobian, values, ...), so that a change of load reaches both alike
+let check = valuesOnce() + jacobianOnce();
+const tv: number[] = [];
+const tj: number[] = [];
+for (let r = 0; r < REPEATS; r++) {
+  let t0 = process.hrtime.bigint();
+  check += valuesOnce();
+  tv.push(Number(process.hrtime.bigint() - t0));
+  t0 = process.hrtime.bigint();
+  check += jacobianOnce();
+  tj.push(Number(process.hrtime.bigint() - t0));
+}
+const values = { ns: median(tv) };
+const withJac = { ns: median(tj) };
 
 console.log(
   `uvsky Jacobian benchmark: ${N} points, ${model.parameters().length} free parameters, median of ${REPEATS}`,
@@ -62,4 +65,4 @@ console.log(
 console.log(`values alone        ${(values.ns / N).toFixed(1).padStart(8)} ns/point`);
 console.log(`values + Jacobian   ${(withJac.ns / N).toFixed(1).padStart(8)} ns/point`);
 console.log(`ratio               ${(withJac.ns / values.ns).toFixed(2).padStart(8)}x   (aim: <= 3x)`);
-if (!Number.isFinite(values.check + withJac.check)) throw new Error('non-finite result');
+if (!Number.isFinite(check)) throw new Error('non-finite result');

@@ -24,7 +24,7 @@ import {
 } from '../kernels/bessel-coefficients.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
-import { loadRampBlock, phaseRampPlain, phaseRampSplit, type RampBlock, rampBlock } from '../kernels/ramp.js';
+import { phaseRampPlain, phaseRampSplit, type RampBlock, rampBlock } from '../kernels/ramp.js';
 import { phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
 import { GAUSS_K } from '../kernels/terms.js';
 import type { DualTerm } from '../model/canonical.js';
@@ -291,7 +291,10 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
   return { cols, terms: scaled, total, dtotal, maxFactors, maxSlopes, maxOut };
 }
 
-/** Points per block: the block's rows of the outputs (2 x cols x BLOCK doubles) stay in the L1 cache. */
+/**
+ * Points per block: the block's rows of the outputs (2 x cols x BLOCK doubles) stay in the L1 cache. At most
+ * RAMP_BLOCK (ramp.ts): with a shifted term the block's u and v are the ramp columns.
+ */
 const BLOCK = 128;
 
 /** Per-run scratch (allocated once per call, never per point). */
@@ -329,13 +332,15 @@ interface Scratch {
   /** Per block point: F (unnormalised). */
   readonly fre: Float64Array;
   readonly fim: Float64Array;
-  /** The phase-ramp columns (ramp.ts) when a term is shifted; u and v of the block are loaded into them. */
+  /** The phase-ramp columns (ramp.ts) when a term is shifted; `bu` and `bv` are then its u and v columns. */
   readonly ramp: RampBlock | null;
 }
 
 function scratchFor(plan: JPlan): Scratch {
   const nf = Math.max(1, plan.maxFactors);
   const b = () => new Float64Array(BLOCK);
+  // with a shifted term the block's u and v are the ramp columns themselves (ramp.ts), so the ramps need no copy
+  const ramp = plan.terms.some((t) => t.shifted) ? rampBlock() : null;
   return {
     kout: new Float64Array(plan.maxOut),
     pr: new Float64Array(nf),
@@ -343,8 +348,8 @@ function scratchFor(plan: JPlan): Scratch {
     or: new Float64Array(nf),
     oi: new Float64Array(nf),
     sv: new Float64Array(Math.max(1, plan.maxSlopes)),
-    bu: b(),
-    bv: b(),
+    bu: ramp === null ? b() : ramp.u,
+    bv: ramp === null ? b() : ramp.v,
     bu2: b(),
     buv: b(),
     bv2: b(),
@@ -361,7 +366,7 @@ function scratchFor(plan: JPlan): Scratch {
     bw: b(),
     fre: b(),
     fim: b(),
-    ramp: plan.terms.some((t) => t.shifted) ? rampBlock() : null,
+    ramp,
   };
 }
 
@@ -416,7 +421,6 @@ export function runJacobian(
   for (const t of terms) if (t.shifted && phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
   for (let i0 = 0; i0 < n; i0 += BLOCK) {
     const m = Math.min(BLOCK, n - i0);
-    if (s.ramp !== null) loadRampBlock(s.ramp, u, v, i0, m);
     for (let b = 0; b < m; b++) {
       const uu = u[i0 + b]!;
       const vv = v[i0 + b]!;
