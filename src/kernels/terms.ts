@@ -6,17 +6,18 @@
  * Layout: complex numbers are held as separate `re` and `im` Float64Arrays of equal length.
  * Units: u, v in cycles per radian; quadratic forms M = A A^T in rad^2; shifts e0, n0 in radians.
  *
- * The block kernels (addPointTerm, addRadialTerm, addRadialProductTerm, addLimbDarkenedTerm) take the shift as
- * its phase ramp, already computed for the block by ramp.ts: `ramp.sin[j]`, `ramp.cos[j]` belong to the point
- * start + j; a null ramp means the term is not shifted.
+ * The block kernels (addPointTerm, addRadialTerm, addRadialProductTerm, addLimbDarkenedTerm) take the block's
+ * columns of block.ts, loaded with the block's u and v (index j for the point start + j); for a shifted term
+ * (`shifted` true) `bc.sin` and `bc.cos` already hold its phase ramp. Gaussian factors come from
+ * gaussianBlock (block.ts) over the same columns.
  *
  * @module
  */
 import { besselJ0 as besselJ0Import, diskAmplitude as diskAmplitudeImport } from './bessel.js';
 import { HANKEL_START as PIECES_END, pieceIndex, pieceLocal } from './bessel-coefficients.js';
+import { type BlockColumns, gaussianBlock } from './block.js';
 import { quadraticLimbAmplitude as quadraticLimbAmplitudeImport } from './components.js';
 import { basisPiece as basisPieceImport } from './limb-pieces.js';
-import type { RampBlock } from './ramp.js';
 import {
   SIN_COS as SIN_COS_IMPORT,
   sinCosPhase as sinCosPhaseImport,
@@ -46,8 +47,9 @@ export const RADIAL_THIN_RING = 2;
  * @param start - first point
  * @param end - one past the last point
  * @param flux - term flux
- * @param ramp - the block's phase ramp of the term's shift (sin and cos of 2 pi (u e0 + v n0) at start + j),
- *   or null for a term at the origin
+ * @param bc - the block columns (block.ts); with `shifted`, `bc.sin[j]` and `bc.cos[j]` hold sin and cos of
+ *   2 pi (u e0 + v n0) at the point start + j
+ * @param shifted - whether the term is shifted (false: a term at the origin)
  */
 export function addPointTerm(
   re: Float64Array,
@@ -55,14 +57,15 @@ export function addPointTerm(
   start: number,
   end: number,
   flux: number,
-  ramp: RampBlock | null,
+  bc: BlockColumns,
+  shifted: boolean,
 ): void {
-  if (ramp === null) {
+  if (!shifted) {
     for (let i = start; i < end; i++) re[i] = re[i]! + flux;
     return;
   }
-  const sn = ramp.sin;
-  const cs = ramp.cos;
+  const sn = bc.sin;
+  const cs = bc.cos;
   for (let i = start, j = 0; i < end; i++, j++) {
     re[i] = re[i]! + flux * cs[j]!;
     im[i] = im[i]! - flux * sn[j]!;
@@ -140,7 +143,8 @@ export function mulRadial(
  * @param m11 - quadratic form entries of M = A A^T (rad^2)
  * @param m12 - off-diagonal entry
  * @param m22 - second diagonal entry
- * @param ramp - the block's phase ramp of the shift (index j for the point start + j), or null when unshifted
+ * @param bc - the block columns (block.ts), u and v loaded; with `shifted`, sin and cos hold the phase ramp
+ * @param shifted - whether the term is shifted
  *
  * Notes: this is the hot path of most models (one shifted disk, Gaussian or ring): one kernel call per point,
  * the phase ramp read from the block's columns.
@@ -157,13 +161,14 @@ export function addRadialTerm(
   m11: number,
   m12: number,
   m22: number,
-  ramp: RampBlock | null,
+  bc: BlockColumns,
+  shifted: boolean,
 ): void {
   const diskAmplitude = diskAmplitudeImport;
   const besselJ0 = besselJ0Import;
   const m12x2 = 2 * m12;
-  const sn = ramp === null ? null : ramp.sin;
-  const cs = ramp === null ? null : ramp.cos;
+  const sn = shifted ? bc.sin : null;
+  const cs = shifted ? bc.cos : null;
   switch (code) {
     case RADIAL_UNIFORM_DISK:
       if (sn !== null && cs !== null) {
@@ -184,25 +189,21 @@ export function addRadialTerm(
         }
       }
       return;
-    case RADIAL_GAUSSIAN:
+    case RADIAL_GAUSSIAN: {
+      // exp(-GAUSS_K r^2) for the whole block first (block.ts: WebAssembly SIMD where it runs)
+      gaussianBlock(bc, end - start, m11, m12, m22, GAUSS_K);
+      const gauss = bc.gauss;
       if (sn !== null && cs !== null) {
         for (let i = start, j = 0; i < end; i++, j++) {
-          const uu = u[i]!;
-          const vv = v[i]!;
-          const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
-          const a = flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
+          const a = flux * gauss[j]!;
           re[i] = re[i]! + a * cs[j]!;
           im[i] = im[i]! - a * sn[j]!;
         }
       } else {
-        for (let i = start; i < end; i++) {
-          const uu = u[i]!;
-          const vv = v[i]!;
-          const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
-          re[i] = re[i]! + flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
-        }
+        for (let i = start, j = 0; i < end; i++, j++) re[i] = re[i]! + flux * gauss[j]!;
       }
       return;
+    }
     case RADIAL_THIN_RING:
       if (sn !== null && cs !== null) {
         for (let i = start, j = 0; i < end; i++, j++) {
@@ -301,12 +302,14 @@ export function addAmplitudeTerm(
  * @param start - first point
  * @param end - one past the last point
  * @param flux - term flux
- * @param ramp - the block's phase ramp of the shift (index j for the point start + j), or null when unshifted
+ * @param bc - the block columns (block.ts), u and v loaded; with `shifted`, sin and cos hold the phase ramp
+ * @param shifted - whether the term is shifted
  * @param ratio - for two factors whose forms are proportional to rounding (M_1 = ratio M_0, compilePlan finds
  *   them), the ratio, so that one form serves both; NaN otherwise
  *
- * Notes: gives the same numbers as multiplying the factors one loop at a time ({@link mulRadial}) and adding the
- * ramp ({@link addAmplitudeTerm}): the factors are multiplied into the flux in the same order.
+ * Notes: gives the numbers of multiplying the factors one loop at a time ({@link mulRadial}) and adding the
+ * ramp ({@link addAmplitudeTerm}) to rounding: a Gaussian factor comes from gaussianBlock (block.ts) and is
+ * multiplied in last.
  */
 export function addRadialProductTerm(
   codes: Int32Array,
@@ -319,21 +322,45 @@ export function addRadialProductTerm(
   start: number,
   end: number,
   flux: number,
-  ramp: RampBlock | null,
+  bc: BlockColumns,
+  shifted: boolean,
   ratio = Number.NaN,
 ): void {
   const diskAmplitude = diskAmplitudeImport;
   const besselJ0 = besselJ0Import;
-  const sn = ramp === null ? null : ramp.sin;
-  const cs = ramp === null ? null : ramp.cos;
+  const sn = shifted ? bc.sin : null;
+  const cs = shifted ? bc.cos : null;
   for (let f = 0; f < nf; f++) {
     const c = codes[f]!;
     if (c !== RADIAL_UNIFORM_DISK && c !== RADIAL_GAUSSIAN && c !== RADIAL_THIN_RING) {
       throw new Error(`addRadialProductTerm: unknown kernel code ${c}`);
     }
   }
+  if (nf === 2 && (codes[0] === RADIAL_GAUSSIAN) !== (codes[1] === RADIAL_GAUSSIAN)) {
+    // one Gaussian factor (a Gaussian-blurred ring or disk): the Gaussian for the whole block from block.ts,
+    // the other factor per point
+    const gf = codes[0] === RADIAL_GAUSSIAN ? 0 : 1;
+    const of = 1 - gf;
+    gaussianBlock(bc, end - start, m[3 * gf]!, m[3 * gf + 1]!, m[3 * gf + 2]!, GAUSS_K);
+    const gauss = bc.gauss;
+    const k = radialUnit(codes[of]!);
+    const a11 = m[3 * of]!;
+    const a12 = 2 * m[3 * of + 1]!;
+    const a22 = m[3 * of + 2]!;
+    for (let i = start, j = 0; i < end; i++, j++) {
+      const uu = u[i]!;
+      const vv = v[i]!;
+      const r2 = a11 * uu * uu + a12 * uu * vv + a22 * vv * vv;
+      const a = flux * k(r2 > 0 ? r2 : 0) * gauss[j]!;
+      if (sn !== null && cs !== null) {
+        re[i] = re[i]! + a * cs[j]!;
+        im[i] = im[i]! - a * sn[j]!;
+      } else re[i] = re[i]! + a;
+    }
+    return;
+  }
   if (nf === 2) {
-    // two factors (a blurred ring, a blurred disk): unrolled, the forms in locals, the kernels picked once
+    // two factors of other kinds: unrolled, the forms in locals, the kernels picked once
     const k0 = radialUnit(codes[0]!);
     const k1 = radialUnit(codes[1]!);
     const a11 = m[0]!;
@@ -396,7 +423,8 @@ export function addRadialProductTerm(
  * @param c32 - weight of L_{3/2}(x) = 3 (sin x - x cos x) / x^3
  * @param c2 - weight of 8 J2(x)/x^2 (0 for the linear law)
  * @param pieces - the law's table on the unit pieces, limbPieces(c1, c32, c2) (limb-pieces.ts)
- * @param ramp - the block's phase ramp of the shift (index j for the point start + j), or null when unshifted
+ * @param bc - the block columns (block.ts), u and v loaded; with `shifted`, sin and cos hold the phase ramp
+ * @param shifted - whether the term is shifted
  *
  * Notes: from 2 to HANKEL_START (48) the whole law is one polynomial per piece (`pieces`, the basis tables of
  * bessel-coefficients.ts added with the law's weights; error of each basis polynomial below 6e-17); elsewhere it
@@ -418,13 +446,14 @@ export function addLimbDarkenedTerm(
   c32: number,
   c2: number,
   pieces: Float64Array,
-  ramp: RampBlock | null,
+  bc: BlockColumns,
+  shifted: boolean,
 ): void {
   const outside = quadraticLimbAmplitudeImport;
   const basisPiece = basisPieceImport;
   const m12x2 = 2 * m12;
-  const sn = ramp === null ? null : ramp.sin;
-  const cs = ramp === null ? null : ramp.cos;
+  const sn = shifted ? bc.sin : null;
+  const cs = shifted ? bc.cos : null;
   for (let i = start, j = 0; i < end; i++, j++) {
     const uu = u[i]!;
     const vv = v[i]!;

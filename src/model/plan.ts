@@ -5,9 +5,9 @@
  * @module
  */
 import { ModelError } from '../errors.js';
+import { BLOCK_POINTS, blockColumns, loadBlock, phaseRampPlain, phaseRampSplit } from '../kernels/block.js';
 import { RADIAL_LINEAR_LD, RADIAL_QUADRATIC_LD } from '../kernels/components.js';
 import { limbPieces } from '../kernels/limb-pieces.js';
-import { loadRampBlock, phaseRampPlain, phaseRampSplit, RAMP_BLOCK, rampBlock } from '../kernels/ramp.js';
 import { phaseNeedsSplit, splitHead } from '../kernels/sincos.js';
 import {
   addLimbDarkenedTerm,
@@ -190,7 +190,7 @@ export function checkTotalFlux(total: number, absTotal: number, path: string): v
  * Points per block of {@link runPlan}: the block's u, v, re and im (32 kB) stay in the first- or second-level
  * cache while every term adds into them, instead of one pass over the whole columns per term.
  */
-export const PLAN_BLOCK = RAMP_BLOCK;
+export const PLAN_BLOCK = BLOCK_POINTS;
 
 /**
  * Evaluates the normalised complex visibility of a plan into `re`, `im`.
@@ -226,16 +226,12 @@ export function runPlan(
   // the largest |u|, |v| of each block decide between the plain and the split phase, unless bounds over all
   // points (the caller's, from its finiteness check) already say that no term needs the split one
   let perBlock = false;
-  let anyShift = false;
   // heads and tails of each term's shift (splitHead), for the split phase
   const split = new Float64Array(4 * terms.length);
   for (let j = 0; j < terms.length; j++) {
     const t = terms[j]!;
     if (t.component === true) late = true;
-    else if (t.e0 !== 0 || t.n0 !== 0) {
-      anyShift = true;
-      if (phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
-    }
+    else if ((t.e0 !== 0 || t.n0 !== 0) && phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
     const eh = splitHead(t.e0);
     const nh = splitHead(t.n0);
     split[4 * j] = eh;
@@ -243,8 +239,9 @@ export function runPlan(
     split[4 * j + 2] = nh;
     split[4 * j + 3] = t.n0 - nh;
   }
-  // the phase ramps of a block come from ramp.ts (WebAssembly SIMD where it runs), one call per shifted term
-  const rb = anyShift ? rampBlock() : null;
+  // the block kernels of block.ts (WebAssembly SIMD where it runs): u and v of each block are loaded into their
+  // columns once; phase ramps (one call per shifted term) and Gaussian factors read them there
+  const bc = blockColumns();
   // without extended components every term is added already normalised (flux / total), with no last pass
   const scale = late ? 1 : k;
   for (let b0 = 0; b0 < n; b0 += PLAN_BLOCK) {
@@ -254,19 +251,18 @@ export function runPlan(
     im.fill(0, b0, b1);
     const uMax = perBlock ? maxAbs(u, b0, b1) : uBound;
     const vMax = perBlock ? maxAbs(v, b0, b1) : vBound;
-    if (rb !== null) loadRampBlock(rb, u, v, b0, len);
+    loadBlock(bc, u, v, b0, len);
     for (let j = 0; j < terms.length; j++) {
       const t = terms[j]!;
       if (t.component === true) continue; // a term with other components: below, over all points
       const nf = t.factors.length;
       const f0 = t.factors[0];
       const flux = t.flux * scale;
-      let ramp = null;
-      if (rb !== null && (t.e0 !== 0 || t.n0 !== 0)) {
+      const shifted = t.e0 !== 0 || t.n0 !== 0;
+      if (shifted) {
         if (phaseNeedsSplit(uMax, vMax, t.e0, t.n0)) {
-          phaseRampSplit(rb, len, split[4 * j]!, split[4 * j + 1]!, split[4 * j + 2]!, split[4 * j + 3]!);
-        } else phaseRampPlain(rb, len, t.e0, t.n0);
-        ramp = rb;
+          phaseRampSplit(bc, len, split[4 * j]!, split[4 * j + 1]!, split[4 * j + 2]!, split[4 * j + 3]!);
+        } else phaseRampPlain(bc, len, t.e0, t.n0);
       }
       if (nf === 1 && (f0!.code === RADIAL_LINEAR_LD || f0!.code === RADIAL_QUADRATIC_LD)) {
         const p = f0!.p;
@@ -286,17 +282,18 @@ export function runPlan(
           p[1]!,
           c2,
           t.limb!,
-          ramp,
+          bc,
+          shifted,
         );
       } else if (nf === 0) {
-        addPointTerm(re, im, b0, b1, flux, ramp);
+        addPointTerm(re, im, b0, b1, flux, bc, shifted);
       } else if (nf === 1) {
         const f = f0!;
-        addRadialTerm(f.code, re, im, u, v, b0, b1, flux, f.m11, f.m12, f.m22, ramp);
+        addRadialTerm(f.code, re, im, u, v, b0, b1, flux, f.m11, f.m12, f.m22, bc, shifted);
       } else {
         // a product of foundation kinds (compilePlan packed it): one fused pass, no scratch
         const fused = t.fused!;
-        addRadialProductTerm(fused.codes, fused.m, nf, re, im, u, v, b0, b1, flux, ramp, fused.ratio);
+        addRadialProductTerm(fused.codes, fused.m, nf, re, im, u, v, b0, b1, flux, bc, shifted, fused.ratio);
       }
     }
   }

@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import { afterAll, describe, expect, it } from 'vitest';
 import wabtInit from 'wabt';
 import {
+  gaussian,
   gaussianRing,
   limbDarkenedDisk,
   linearLaw,
@@ -11,14 +12,15 @@ import {
   visibilityJacobian,
 } from '../../src/index.js';
 import {
-  loadRampBlock,
+  BLOCK_POINTS,
+  blockColumns,
+  gaussianBlock,
+  loadBlock,
   phaseRampPlain,
   phaseRampSplit,
-  RAMP_BLOCK,
-  rampBlock,
-  useRampBackend,
-} from '../../src/kernels/ramp.js';
-import { RAMP_WASM_BASE64 } from '../../src/kernels/ramp-wasm.js';
+  useBlockBackend,
+} from '../../src/kernels/block.js';
+import { BLOCK_WASM_BASE64 } from '../../src/kernels/block-wasm.js';
 import { splitHead } from '../../src/kernels/sincos.js';
 import { RAD_PER_MAS } from '../../src/units/index.js';
 import { exactTurns } from './helpers.js';
@@ -27,6 +29,10 @@ import { exactTurns } from './helpers.js';
 const SINCOS_TOL = 4e-16;
 /** Absolute error allowed on the phase of the split ramp, shifts up to 1 arcsecond, |u| up to 3e8, rad. */
 const PHASE_TOL = 1e-12;
+/** Relative error allowed on exp(-k r^2) against Math.exp (V8's port of fdlibm's exp, below 1 ulp): 2 ulp. */
+const EXP_TOL = 4.5e-16;
+/** Smallest normal binary64 number. */
+const MIN_NORMAL = 2 ** -1022;
 
 const rnd = (() => {
   let s = 2024;
@@ -36,20 +42,20 @@ const rnd = (() => {
   };
 })();
 
-const initial = rampBlock().backend;
+const initial = blockColumns().backend;
 afterAll(() => {
-  useRampBackend(initial);
+  useBlockBackend(initial);
 });
 
-describe('the WebAssembly module of the phase ramps', () => {
-  it('is the committed text form ramp.wat assembled by wabt (the WebAssembly Binary Toolkit)', async () => {
+describe('the WebAssembly module of the block kernels', () => {
+  it('is the committed text form block.wat assembled by wabt (the WebAssembly Binary Toolkit)', async () => {
     const wabt = await wabtInit();
-    const wat = readFileSync(new URL('../../src/kernels/ramp.wat', import.meta.url), 'utf8');
-    const parsed = wabt.parseWat('ramp.wat', wat, { simd: true });
+    const wat = readFileSync(new URL('../../src/kernels/block.wat', import.meta.url), 'utf8');
+    const parsed = wabt.parseWat('block.wat', wat, { simd: true });
     parsed.validate();
     const bytes = Buffer.from(parsed.toBinary({}).buffer).toString('base64');
     parsed.destroy();
-    expect(bytes).toBe(RAMP_WASM_BASE64);
+    expect(bytes).toBe(BLOCK_WASM_BASE64);
   });
 
   it('runs here (Node has WebAssembly SIMD), so the evaluation uses it by default', () => {
@@ -58,15 +64,15 @@ describe('the WebAssembly module of the phase ramps', () => {
 });
 
 for (const backend of ['wasm', 'js'] as const) {
-  describe(`the ${backend} phase ramps`, () => {
+  describe(`the ${backend} block kernels`, () => {
     it('give sin and cos of 2 pi (u e + v n) to 4e-16 against Math.sin and Math.cos, for odd and full blocks', () => {
-      const rb = useRampBackend(backend);
-      for (const n of [1, 3, 200, RAMP_BLOCK - 1, RAMP_BLOCK]) {
+      const rb = useBlockBackend(backend);
+      for (const n of [1, 3, 200, BLOCK_POINTS - 1, BLOCK_POINTS]) {
         const u = Float64Array.from({ length: n }, () => rnd() * 6e8);
         const v = Float64Array.from({ length: n }, () => rnd() * 6e8);
         const e0 = 4.5 * RAD_PER_MAS;
         const n0 = -2.2 * RAD_PER_MAS;
-        loadRampBlock(rb, u, v, 0, n);
+        loadBlock(rb, u, v, 0, n);
         phaseRampPlain(rb, n, e0, n0);
         let worst = 0;
         for (let i = 0; i < n; i++) {
@@ -83,12 +89,12 @@ for (const backend of ['wasm', 'js'] as const) {
     });
 
     it('read the block from any start in the columns and give exact quarter turns', () => {
-      const rb = useRampBackend(backend);
+      const rb = useBlockBackend(backend);
       // u e = k / 4 turns exactly: e = 2^-30 rad, u = k 2^28
       const k = [0, 1, 2, 3, -1, -2, 5, 4099];
       const u = Float64Array.from([7, 7, ...k.map((x) => x * 2 ** 28)]);
       const v = new Float64Array(u.length);
-      loadRampBlock(rb, u, v, 2, k.length);
+      loadBlock(rb, u, v, 2, k.length);
       phaseRampPlain(rb, k.length, 2 ** -30, 0);
       k.forEach((x, i) => {
         const q = ((x % 4) + 4) % 4;
@@ -97,8 +103,54 @@ for (const backend of ['wasm', 'js'] as const) {
       });
     });
 
+    it('give exp(-k r^2) to 2 ulp of Math.exp from 1 down to the smallest normal numbers, and 0 far out', () => {
+      const cols = useBlockBackend(backend);
+      // x = -r^2 from 0 to -800 with m = identity and k = 1, so the quadratic form is u^2 exactly as written
+      const n = BLOCK_POINTS;
+      const u = Float64Array.from(
+        { length: n },
+        (_, i) => Math.sqrt((800 * i) / (n - 1)) * (1 + 1e-3 * rnd()),
+      );
+      const v = new Float64Array(n);
+      loadBlock(cols, u, v, 0, n);
+      gaussianBlock(cols, n, 1, 0, 0, 1);
+      let worst = 0;
+      for (let i = 0; i < n; i++) {
+        const want = Math.exp(-(u[i]! * u[i]!));
+        const got = cols.gauss[i]!;
+        if (want >= MIN_NORMAL) worst = Math.max(worst, Math.abs(got - want) / want);
+        else expect(Math.abs(got - want), `u = ${u[i]}`).toBeLessThanOrEqual(2 * 2 ** -1074); // subnormal results
+        if (u[i]! * u[i]! > 746) expect(got).toBe(0);
+      }
+      expect(worst).toBeLessThan(EXP_TOL);
+      expect(cols.gauss[0]).toBe(1); // exp(0)
+    });
+
+    it('evaluate the quadratic form of an inclined Gaussian as the scalar loops do, clamped at 0', () => {
+      const cols = useBlockBackend(backend);
+      const s = RAD_PER_MAS * RAD_PER_MAS;
+      const [m11, m12, m22] = [4.2 * s, -1.3 * s, 1.1 * s]; // a rotated ellipse, mas^2 in rad^2
+      const k = (Math.PI * Math.PI) / (4 * Math.LN2);
+      const n = 301;
+      const u = Float64Array.from({ length: n }, () => rnd() * 3e8);
+      const v = Float64Array.from({ length: n }, () => rnd() * 3e8);
+      loadBlock(cols, u, v, 0, n);
+      gaussianBlock(cols, n, m11, m12, m22, k);
+      let worst = 0;
+      for (let i = 0; i < n; i++) {
+        const r2 = m11 * u[i]! * u[i]! + 2 * m12 * u[i]! * v[i]! + m22 * v[i]! * v[i]!;
+        const want = Math.exp(-k * (r2 > 0 ? r2 : 0));
+        if (want >= MIN_NORMAL) worst = Math.max(worst, Math.abs(cols.gauss[i]! - want) / want);
+      }
+      expect(worst).toBeLessThan(EXP_TOL);
+      // a form that comes out below 0 (as rounding can make it near u = v = 0) gives exp(0) = 1, not more
+      loadBlock(cols, Float64Array.of(1), Float64Array.of(1), 0, 1);
+      gaussianBlock(cols, 1, 1, -1, 0.5, 1); // r^2 = 1 - 2 + 1/2 < 0
+      expect(cols.gauss[0]).toBe(1);
+    });
+
     it('keep the split phase within 1e-12 rad of the exact phase for shifts up to 1 arcsecond and |u| up to 3e8', () => {
-      const rb = useRampBackend(backend);
+      const rb = useBlockBackend(backend);
       let worst = 0;
       for (let k = 0; k < 20; k++) {
         const e0 = rnd() * 2000 * RAD_PER_MAS;
@@ -108,7 +160,7 @@ for (const backend of ['wasm', 'js'] as const) {
         const v = Float64Array.from({ length: n }, () => rnd() * 6e8);
         const eh = splitHead(e0);
         const nh = splitHead(n0);
-        loadRampBlock(rb, u, v, 0, n);
+        loadBlock(rb, u, v, 0, n);
         phaseRampSplit(rb, n, eh, e0 - eh, nh, n0 - nh);
         for (let i = 0; i < n; i++) {
           const exact = 2 * Math.PI * exactTurns(u[i]!, e0, v[i]!, n0);
@@ -122,22 +174,25 @@ for (const backend of ['wasm', 'js'] as const) {
   });
 }
 
-describe('evaluation with either form of the ramps', () => {
+describe('evaluation with either form of the block kernels', () => {
   const model = sum(
     limbDarkenedDisk({ diameter: 1.8, law: linearLaw(0.4) }).shift(0.3, 0.1),
     gaussianRing({ diameter: 6, fwhm: 1 }).incline(50, 30).weight(0.3).shift(-1, 2),
+    gaussian({ fwhm: param('fwhm', 3) })
+      .incline(40, 10)
+      .weight(0.2),
     point().weight(param('companion', 0.05)).shift(param('east', 4.5), param('north', -2)),
     point().weight(0.01).shift(param('far', 900), 400), // far enough out for the split phase
   );
-  const n = 2 * RAMP_BLOCK + 77;
+  const n = 2 * BLOCK_POINTS + 77;
   const u = Float64Array.from({ length: n }, () => rnd() * 6e8);
   const v = Float64Array.from({ length: n }, () => rnd() * 6e8);
 
-  it('gives the same visibilities and Jacobians from the WebAssembly and the JavaScript ramps', () => {
-    useRampBackend('wasm');
+  it('gives the same visibilities and Jacobians from the WebAssembly and the JavaScript kernels', () => {
+    useBlockBackend('wasm');
     const w = model.visibilities(u, v);
     const wj = visibilityJacobian(model, u, v);
-    useRampBackend('js');
+    useBlockBackend('js');
     const j = model.visibilities(u, v);
     const jj = visibilityJacobian(model, u, v);
     let worst = 0;
@@ -146,11 +201,11 @@ describe('evaluation with either form of the ramps', () => {
       worst = Math.max(worst, rel(w.re[i]!, j.re[i]!), rel(w.im[i]!, j.im[i]!));
       worst = Math.max(worst, rel(wj.re[i]!, jj.re[i]!), rel(wj.im[i]!, jj.im[i]!));
     }
-    expect(wj.cols).toBe(4);
+    expect(wj.cols).toBe(5);
     for (let k = 0; k < n * wj.cols; k++) {
       worst = Math.max(worst, rel(wj.dre[k]!, jj.dre[k]!), rel(wj.dim[k]!, jj.dim[k]!));
     }
-    // the two forms differ only where floor(4 t + 1/2) and the int32 truncation pick different quadrants
+    // the two forms differ by rounding: quadrants picked by floor or by an int32 truncation, exp to 2 ulp
     expect(worst).toBeLessThan(1e-14);
   });
 });
