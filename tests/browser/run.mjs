@@ -47,25 +47,49 @@ const importMap = {
   imports: Object.fromEntries([...bare].map((n) => [n, `/vendor/${encodeURIComponent(n)}.js`])),
 };
 
-const PAGE = `<!doctype html><meta charset="utf-8"><title>uvsky browser smoke test</title>
+/**
+ * The page: a model's V^2 and closure phase, and a shifted point and a shifted Gaussian against closed forms
+ * computed in the page with Math.cos, Math.sin and Math.exp (so the block kernels are checked in the browser,
+ * in WebAssembly or, under a content security policy that forbids compiling it, in JavaScript).
+ */
+const page = (csp) => `<!doctype html><meta charset="utf-8"><title>uvsky browser smoke test</title>
+${csp ? `<meta http-equiv="Content-Security-Policy" content="${csp}">` : ''}
 <script type="importmap">${JSON.stringify(importMap)}</script>
 <script type="module">
   try {
-    const { disk, point, sum } = await import('/dist/index.js');
+    const { disk, gaussian, point, sum } = await import('/dist/index.js');
     const m = sum(disk({ diameter: 2 }), point().weight(0.1).shift(3, 0));
     const v2 = Array.from(m.vis2([0, 5e7], [0, 0]));
     const cp = Array.from(m.closurePhase([5e7], [0], [0], [5e7]));
-    window.__result = { v2, cp, model: m.toString() };
+    const MAS = Math.PI / 180 / 3600 / 1000;
+    const u = [5e7, 1.2e8, -2e8];
+    const v = [2e7, -3e7, 1e8];
+    const z = gaussian({ fwhm: 2 }).shift(3, -1).visibilities(u, v);
+    let worst = 0;
+    for (let i = 0; i < u.length; i++) {
+      const q = Math.hypot(u[i], v[i]);
+      const amp = Math.exp(-((Math.PI * 2 * MAS * q) ** 2) / (4 * Math.LN2));
+      const phase = -2 * Math.PI * (u[i] * 3 * MAS - v[i] * MAS);
+      worst = Math.max(worst, Math.abs(z.re[i] - amp * Math.cos(phase)), Math.abs(z.im[i] - amp * Math.sin(phase)));
+    }
+    let wasm = true;
+    try { new WebAssembly.Module(new Uint8Array([0, 97, 115, 109, 1, 0, 0, 0])); } catch { wasm = false; }
+    window.__result = { v2, cp, worst, wasm, model: m.toString() };
   } catch (e) {
     window.__result = { error: String(e && e.stack || e) };
   }
 </script>`;
+const PAGES = {
+  '/': page(''),
+  // no 'wasm-unsafe-eval': the page may not compile WebAssembly, so the library takes its JavaScript kernels
+  '/csp.html': page("script-src 'self' 'unsafe-inline'"),
+};
 
 const TYPES = { '.js': 'text/javascript', '.map': 'application/json', '.html': 'text/html' };
 const server = createServer((req, res) => {
   const path = normalize(decodeURIComponent(new URL(req.url, 'http://localhost').pathname));
-  if (path === '/' || path === '/index.html') {
-    res.writeHead(200, { 'content-type': 'text/html' }).end(PAGE);
+  if (PAGES[path] !== undefined) {
+    res.writeHead(200, { 'content-type': 'text/html' }).end(PAGES[path]);
     return;
   }
   if (vendor.has(path)) {
@@ -104,21 +128,33 @@ try {
       '--disable-sync',
     ],
   });
-  const page = context.pages()[0] ?? (await context.newPage());
-  const errors = [];
-  page.on('pageerror', (e) => errors.push(String(e)));
-  await page.goto(`http://127.0.0.1:${port}/`, { timeout: TIMEOUT_MS });
-  await page.waitForFunction(() => window.__result !== undefined, null, { timeout: TIMEOUT_MS });
-  const result = await page.evaluate(() => window.__result);
-  if (result.error) throw new Error(`the page failed: ${result.error}`);
-  const [v0, v1] = result.v2;
-  if (Math.abs(v0 - 1) > 1e-12 || !(v1 > 0 && v1 < 1)) throw new Error(`unexpected V^2 ${result.v2}`);
-  if (!(Math.abs(result.cp[0]) > 1e-6))
-    throw new Error(`the companion should give a non-zero closure phase: ${result.cp}`);
-  if (errors.length > 0) throw new Error(`page errors: ${errors.join('; ')}`);
-  console.log(
-    `browser smoke test passed (chromium ${context.browser()?.version() ?? ''}): ${result.model}, V^2 = ${result.v2.map((x) => x.toFixed(6)).join(', ')}, closure phase ${result.cp[0].toFixed(4)} deg`,
-  );
+  for (const [path, wantWasm] of [
+    ['/', true],
+    ['/csp.html', false],
+  ]) {
+    const tab = await context.newPage();
+    const errors = [];
+    tab.on('pageerror', (e) => errors.push(String(e)));
+    await tab.goto(`http://127.0.0.1:${port}${path}`, { timeout: TIMEOUT_MS });
+    await tab.waitForFunction(() => window.__result !== undefined, null, { timeout: TIMEOUT_MS });
+    const result = await tab.evaluate(() => window.__result);
+    if (result.error) throw new Error(`the page ${path} failed: ${result.error}`);
+    const [v0, v1] = result.v2;
+    if (Math.abs(v0 - 1) > 1e-12 || !(v1 > 0 && v1 < 1))
+      throw new Error(`${path}: unexpected V^2 ${result.v2}`);
+    if (!(Math.abs(result.cp[0]) > 1e-6))
+      throw new Error(`${path}: the companion should give a non-zero closure phase: ${result.cp}`);
+    // shifted Gaussian against exp(-(pi fwhm q)^2 / (4 ln 2)) exp(-2 pi i q.x) (CONVENTIONS.md), to 1e-14
+    if (!(result.worst < 1e-14))
+      throw new Error(`${path}: shifted Gaussian off its closed form by ${result.worst}`);
+    if (result.wasm !== wantWasm)
+      throw new Error(`${path}: WebAssembly compiles: ${result.wasm}, expected ${wantWasm}`);
+    if (errors.length > 0) throw new Error(`${path}: page errors: ${errors.join('; ')}`);
+    console.log(
+      `browser smoke test passed at ${path} (chromium ${context.browser()?.version() ?? ''}, WebAssembly ${result.wasm ? 'allowed' : 'forbidden by the page'}): ${result.model}, V^2 = ${result.v2.map((x) => x.toFixed(6)).join(', ')}, closure phase ${result.cp[0].toFixed(4)} deg, shifted Gaussian within ${result.worst.toExponential(1)} of its closed form`,
+    );
+    await tab.close();
+  }
 } catch (e) {
   failed = true;
   console.error(`browser smoke test failed: ${e?.stack ?? e}`);
