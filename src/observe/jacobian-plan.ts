@@ -15,11 +15,15 @@
 import { ModelError } from '../errors.js';
 import { besselJ0, besselJ1, diskAmplitude } from '../kernels/bessel.js';
 import {
+  basisPiece as basisPieceImport,
+  DISK_PIECES as DISK_PIECES_IMPORT,
   diskPiece,
   HANKEL_START,
   j0Piece,
+  L32_PIECES as L32_PIECES_IMPORT,
   pieceIndex,
   pieceLocal,
+  W2_PIECES as W2_PIECES_IMPORT,
   w2Piece,
 } from '../kernels/bessel-coefficients.js';
 import {
@@ -31,6 +35,7 @@ import {
 } from '../kernels/block.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
+import { limbPieces, limbSlopePieces } from '../kernels/limb-pieces.js';
 import { phaseNeedsSplit, SIN_COS, sinCosPhase, sinCosTurns, splitHead } from '../kernels/sincos.js';
 import { GAUSS_K } from '../kernels/terms.js';
 import type { DualTerm } from '../model/canonical.js';
@@ -65,6 +70,8 @@ const CODE_GAUSS = 1;
 const CODE_RING = 2;
 const CODE_RADIAL = 3;
 const CODE_COMPLEX = 4;
+/** A linearly or quadratically limb-darkened disk: its law's value and slope tables (limb-pieces.ts). */
+const CODE_LIMB = 5;
 
 /** One canonical term flattened for the per-point loop. */
 interface JTerm {
@@ -99,6 +106,10 @@ interface JTerm {
   readonly coefOff: Int32Array;
   /** Per factor: offset of its slopes in the per-point slope scratch. */
   readonly slopeOff: Int32Array;
+  /** Per factor (CODE_LIMB): the law's value and slope tables on the half-unit pieces, else null. */
+  readonly limb: readonly ({ readonly p: Float64Array; readonly s: Float64Array } | null)[];
+  /** Per factor: 1 when an active parameter moves its kernel coefficients (their slopes are needed). */
+  readonly moved: Uint8Array;
   /** Free parameters that move this term (column indices). */
   readonly idx: Int32Array;
   /** Per active parameter, `stride` entries: d flux, d east (rad), d north (rad), geometry, coefficients. */
@@ -158,6 +169,7 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
     const geoOff = new Int32Array(nf);
     const coefOff = new Int32Array(nf);
     const slopeOff = new Int32Array(nf);
+    const limb: ({ p: Float64Array; s: Float64Array } | null)[] = new Array(nf).fill(null);
     let complex = false;
     let geo = 3;
     let slopes = 0;
@@ -189,6 +201,7 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
       if (kind.radial) {
         radialKernels.push(kind.kernel);
         complexKernels.push(null);
+        const law = f.kind === 'linearLimbDarkened' || f.kind === 'quadraticLimbDarkened';
         codes[k] =
           f.kind === 'uniformDisk'
             ? CODE_DISK
@@ -196,7 +209,13 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
               ? CODE_GAUSS
               : f.kind === 'thinRing'
                 ? CODE_RING
-                : CODE_RADIAL;
+                : law
+                  ? CODE_LIMB
+                  : CODE_RADIAL;
+        const c2 = c.p.length > 2 ? c.p[2]! : 0;
+        limb[k] = law
+          ? { p: limbPieces(c.p[0]!, c.p[1]!, c2), s: limbSlopePieces(c.p[0]!, c.p[1]!, c2) }
+          : null;
         geo += 3;
         slopes += 1 + np;
         maxOut = Math.max(maxOut, 2 + np);
@@ -257,6 +276,13 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
         coef.push(...row);
       }
     }
+    // which factors' coefficients an active parameter moves (only those need their coefficient slopes)
+    const moved = new Uint8Array(nf);
+    for (let k = 0; k < nf; k++) {
+      for (let q = 0; q < idx.length; q++) {
+        for (let i = 0; i < p[k]!.length; i++) if (coef[q * stride + coefOff[k]! + i] !== 0) moved[k] = 1;
+      }
+    }
     const e0 = t.east.v * RAD_PER_MAS;
     const n0 = t.north.v * RAD_PER_MAS;
     out.push({
@@ -281,6 +307,8 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
       geoOff,
       coefOff,
       slopeOff,
+      limb,
+      moved,
       idx: Int32Array.from(idx),
       coef: Float64Array.from(coef),
       stride,
@@ -448,7 +476,8 @@ export function runJacobian(
       const t = terms[k]!;
       const exact = phaseNeedsSplit(uMax, vMax, t.e0, t.n0);
       if (t.complex) for (let b = 0; b < m; b++) complexTerm(t, b, s, exact, dre, dim, row0 + b * cols);
-      else if (t.nf <= 1 && !t.coefficients) simpleTerm(t, m, s, exact, dre, dim, row0, cols);
+      else if (t.nf <= 1 && (!t.coefficients || t.codes[0] === CODE_LIMB))
+        simpleTerm(t, m, s, exact, dre, dim, row0, cols);
       else blockTerm(t, m, s, exact, dre, dim, row0, cols);
     }
     // the terms added V = F / T and dF / T (their fluxes are divided by T, compileJacobianPlan); what is
@@ -469,9 +498,10 @@ export function runJacobian(
 }
 
 /**
- * A term with at most one factor and no kernel coefficients, over the m points of a block. blockTerm handles
- * these terms too; this specialisation (flux folded into the slope, no per-factor scratch, a loop per kind of
- * parameter) measured about 12 % faster on benchmarks/jacobian.bench.ts, so it stays.
+ * A term with at most one factor and no kernel coefficients, or one limb-darkening law (CODE_LIMB), over the
+ * m points of a block. blockTerm handles these terms too; this specialisation (flux folded into the slope, no
+ * per-factor scratch, a loop per kind of parameter) measured about 12 % faster on benchmarks/jacobian.bench.ts,
+ * so it stays.
  */
 function simpleTerm(
   t: JTerm,
@@ -547,6 +577,43 @@ function simpleTerm(
           }
         }
         break;
+      case CODE_LIMB: {
+        // the law's value and slope from its own tables (one piece index for both), as the value path does; the
+        // basis functions (dP/dc, into fs) only when a parameter moves the coefficients; elsewhere the kernel
+        const tables = t.limb[0]!;
+        const lp = tables.p;
+        const ls = tables.s;
+        const basisPiece = basisPieceImport;
+        const DISK_PIECES = DISK_PIECES_IMPORT;
+        const L32_PIECES = L32_PIECES_IMPORT;
+        const W2_PIECES = W2_PIECES_IMPORT;
+        const fs = s.fs;
+        const kernel = t.radialKernels[0]!;
+        const pk = t.p[0]!;
+        const np = pk.length;
+        const moved = t.moved[0] === 1;
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
+          if (x >= 2 && x < PIECES_END) {
+            const k = pieceIndex(x);
+            const tt = pieceLocal(x, k);
+            bp[b] = basisPiece(lp, k, tt);
+            bg[b] = flux * basisPiece(ls, k, tt);
+            if (moved) {
+              fs[b] = basisPiece(DISK_PIECES, k, tt);
+              fs[BLOCK + b] = basisPiece(L32_PIECES, k, tt);
+              if (np > 2) fs[2 * BLOCK + b] = basisPiece(W2_PIECES, k, tt);
+            }
+          } else {
+            kernel(r2 > 0 ? r2 : 0, pk, kout, null);
+            bp[b] = kout[0]!;
+            bg[b] = flux * kout[1]!;
+            for (let r = 0; r < np; r++) fs[r * BLOCK + b] = kout[2 + r]!;
+          }
+        }
+        break;
+      }
       default: {
         const kernel = t.radialKernels[0]!;
         const pk = t.p[0]!;
@@ -607,7 +674,10 @@ function simpleTerm(
     const d12 = geometry ? coef[o + 4]! : 0;
     const d22 = geometry ? coef[o + 5]! : 0;
     const base = row0 + idx[q]!;
-    if (!t.shifted && de === 0 && dn === 0) {
+    if (movesCoefficients(t, q)) {
+      // a parameter of a limb-darkening law: its coefficients' slopes (fs, CODE_LIMB above) join the sum
+      coefficientParameter(t, q, m, s, dfr, dfi, base, cols);
+    } else if (!t.shifted && de === 0 && dn === 0) {
       // no phase ramp (cos 1, sin 0) and none made by this parameter: the derivative is real, Im is left alone.
       // Such parameters of the term (sizes, axis ratios, angles, weights) go through one pass, up to four at a time
       let k = 1;
@@ -650,7 +720,69 @@ function simpleTerm(
 /** Whether the term's q-th active parameter adds a real derivative only (an unshifted term it does not shift). */
 function realOnly(t: JTerm, q: number): boolean {
   const o = q * t.stride;
-  return !t.shifted && t.coef[o + 1] === 0 && t.coef[o + 2] === 0;
+  return !t.shifted && t.coef[o + 1] === 0 && t.coef[o + 2] === 0 && !movesCoefficients(t, q);
+}
+
+/** Whether the term's q-th active parameter moves the kernel coefficients of its (single) factor. */
+function movesCoefficients(t: JTerm, q: number): boolean {
+  if (t.nf === 0) return false;
+  const o = q * t.stride + t.coefOff[0]!;
+  const np = t.p[0]!.length;
+  for (let r = 0; r < np; r++) if (t.coef[o + r] !== 0) return true;
+  return false;
+}
+
+/**
+ * Adds the derivative with respect to a parameter that moves the coefficients of a one-factor term (a
+ * limb-darkening law, CODE_LIMB): d flux P + dP/dr2 dr2 + flux sum_r dP/dc_r dc_r, times the phase, plus the
+ * shift's ramp term; the basis functions dP/dc_r are in the rows of fs (simpleTerm).
+ */
+function coefficientParameter(
+  t: JTerm,
+  q: number,
+  m: number,
+  s: Scratch,
+  dfr: Float64Array,
+  dfi: Float64Array,
+  base: number,
+  cols: number,
+): void {
+  const { bu, bv, bu2, buv, bv2, bp, bg, bc, bs, tre, tim, fs } = s;
+  const o = q * t.stride;
+  const co = o + t.coefOff[0]!;
+  const np = t.p[0]!.length;
+  const df = t.coef[o]!;
+  const de = TWO_PI * t.coef[o + 1]!;
+  const dn = TWO_PI * t.coef[o + 2]!;
+  const d11 = t.coef[o + 3]!;
+  const d12 = t.coef[o + 4]!;
+  const d22 = t.coef[o + 5]!;
+  // the slopes carry no flux (the kernel's own scale), so flux goes into their coefficients here
+  const c0 = t.flux * t.coef[co]!;
+  const c1 = np > 1 ? t.flux * t.coef[co + 1]! : 0;
+  const c2 = np > 2 ? t.flux * t.coef[co + 2]! : 0;
+  const r1 = np > 1 ? BLOCK : 0; // rows that do not exist read row 0 with a zero coefficient
+  const r2 = np > 2 ? 2 * BLOCK : 0;
+  if (!t.shifted && de === 0 && dn === 0) {
+    for (let b = 0, at = base; b < m; b++, at += cols) {
+      const w =
+        df * bp[b]! +
+        bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!) +
+        (c0 * fs[b]! + c1 * fs[r1 + b]! + c2 * fs[r2 + b]!);
+      dfr[at] = dfr[at]! + w;
+    }
+    return;
+  }
+  for (let b = 0, at = base; b < m; b++, at += cols) {
+    const w =
+      df * bp[b]! +
+      bg[b]! * (d11 * bu2[b]! + d12 * buv[b]! + d22 * bv2[b]!) +
+      (c0 * fs[b]! + c1 * fs[r1 + b]! + c2 * fs[r2 + b]!);
+    // d/dp exp(-2 pi i q.x) = -2 pi i (u dx + v dy) exp(...)
+    const ws = bu[b]! * de + bv[b]! * dn;
+    dfr[at] = dfr[at]! + w * bc[b]! + ws * tim[b]!;
+    dfi[at] = dfi[at]! + w * bs[b]! - ws * tre[b]!;
+  }
 }
 
 /**
@@ -817,6 +949,46 @@ function blockTerm(
           bp[b] = bp[b]! * p;
         }
         break;
+      case CODE_LIMB: {
+        // the law's value and slope from its own tables (one piece index for both), as the value path does;
+        // the basis functions, dP/dc, only when a parameter moves the coefficients; elsewhere the kernel
+        const tables = t.limb[f]!;
+        const lp = tables.p;
+        const ls = tables.s;
+        const basisPiece = basisPieceImport;
+        const DISK_PIECES = DISK_PIECES_IMPORT;
+        const L32_PIECES = L32_PIECES_IMPORT;
+        const W2_PIECES = W2_PIECES_IMPORT;
+        const kernel = t.radialKernels[f]!;
+        const pk = t.p[f]!;
+        const np = pk.length;
+        const so = t.slopeOff[f]! * BLOCK;
+        const moved = t.moved[f] === 1;
+        for (let b = 0; b < m; b++) {
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
+          let p: number;
+          if (x >= 2 && x < PIECES_END) {
+            const k = pieceIndex(x);
+            const tt = pieceLocal(x, k);
+            p = basisPiece(lp, k, tt);
+            fg[po + b] = basisPiece(ls, k, tt);
+            if (moved) {
+              fs[so + b] = basisPiece(DISK_PIECES, k, tt);
+              fs[so + BLOCK + b] = basisPiece(L32_PIECES, k, tt);
+              if (np > 2) fs[so + 2 * BLOCK + b] = basisPiece(W2_PIECES, k, tt);
+            }
+          } else {
+            kernel(r2 > 0 ? r2 : 0, pk, kout, null);
+            p = kout[0]!;
+            fg[po + b] = kout[1]!;
+            for (let r = 0; r < np; r++) fs[so + r * BLOCK + b] = kout[2 + r]!;
+          }
+          fp[po + b] = p;
+          bp[b] = bp[b]! * p;
+        }
+        break;
+      }
       default: {
         const kernel = t.radialKernels[f]!;
         const pk = t.p[f]!;

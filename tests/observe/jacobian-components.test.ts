@@ -201,6 +201,11 @@ const radialModel = sum(
   limbDarkenedDisk({ diameter: p('pd', 2.5, 0), law: powerLaw(p('pal', 0.6, 0)) })
     .incline(p('pinc', 30, 0, 90), p('ppa', 10))
     .weight(p('pw', 0.4)),
+  // laws with fixed coefficients: only the size moves (no coefficient slopes needed)
+  limbDarkenedDisk({ diameter: p('fd', 1.5, 0), law: linearLaw(0.3) })
+    .shift(0.5, p('fdn', 1))
+    .weight(0.3),
+  limbDarkenedDisk({ diameter: p('fq', 2.2, 0), law: quadraticLaw(0.2, 0.1) }).weight(p('fqw', 0.2)),
   annulus({ inner: p('ai', 1, 0), outer: p('ao', 3, 0) })
     .shift(p('ae', -2), 0)
     .weight(p('aw', 0.3)),
@@ -225,6 +230,10 @@ const radialValues = fc
     pinc: num(5, 80),
     ppa: num(-180, 180),
     pw: num(0.2, 1),
+    fd: num(0.5, 4),
+    fdn: num(-5, 5),
+    fq: num(0.5, 4),
+    fqw: num(0.1, 0.5),
     ao: num(1, 5),
     aRatio: num(0.05, 0.95),
     ae: num(-5, 5),
