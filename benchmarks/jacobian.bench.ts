@@ -3,8 +3,10 @@
  * with 8 free parameters, measured side by side in one run (alternately, so that a change of load reaches both
  * alike). Aim: ratio <= 3.
  *
- * Two models: the disk + inclined Gaussian + shifted point of issue 4, and model (b) of the suite (a linearly
- * limb-darkened star with a free coefficient, an inclined Gaussian-blurred ring, a shifted point), as in its (d).
+ * Three models: the disk + inclined Gaussian + shifted point of issue 4; model (b) of the suite (a linearly
+ * limb-darkened star with a free coefficient, an inclined Gaussian-blurred ring, a shifted point), as in its (d);
+ * and a star whose law is fixed (the common case of a law from model atmospheres) with a companion and an
+ * envelope.
  *
  * Run: npm run build && node benchmarks/node-run.mjs benchmarks/jacobian.bench.ts [points]
  */
@@ -46,6 +48,17 @@ const models: [string, Model][] = [
         .incline(50, param('pa', 30))
         .weight(param('ringFlux', 0.3)),
       point().weight(0.05).shift(param('east', 4.5), param('north', -2)),
+    ),
+  ],
+  [
+    'a star with a fixed limb-darkening law + shifted companion + Gaussian envelope',
+    sum(
+      limbDarkenedDisk({ diameter: param('diameter', 1.8, { min: 0 }), law: linearLaw(0.4) }).shift(
+        param('starEast', 0.2),
+        param('starNorth', -0.1),
+      ),
+      point().weight(param('companion', 0.05)).shift(param('east', 4.5), param('north', -2)),
+      gaussian({ fwhm: param('envelopeFwhm', 8, { min: 0 }) }).weight(param('envelope', 0.1)),
     ),
   ],
 ];
