@@ -136,7 +136,8 @@ export function maxAbs(x: Float64Array, start: number, end: number): number {
  * @param fn - the calling function's name, for the message
  * @param name - the argument's name, for the message
  * @returns the values as a Float64Array
- * @throws InputError naming the argument and the index of the first value that is NaN or infinite
+ * @throws InputError naming the argument and the index of the first value that is NaN, infinite or beyond
+ *   {@link MAX_SPATIAL_FREQUENCY}
  */
 export function frequencyColumn(x: ArrayLike<number>, fn: string, name: string): Float64Array {
   return boundedFrequencyColumn(x, fn, name).column;
@@ -149,7 +150,8 @@ export function frequencyColumn(x: ArrayLike<number>, fn: string, name: string):
  * @param fn - the calling function's name, for the message
  * @param name - the argument's name, for the message
  * @returns the column and its largest |value|
- * @throws InputError naming the argument and the index of the first value that is NaN or infinite
+ * @throws InputError naming the argument and the index of the first value that is NaN, infinite or beyond
+ *   {@link MAX_SPATIAL_FREQUENCY}
  */
 export function boundedFrequencyColumn(
   x: ArrayLike<number>,
@@ -161,7 +163,7 @@ export function boundedFrequencyColumn(
   }
   const a = x instanceof Float64Array ? x : Float64Array.from(x);
   const m = maxAbs(a, 0, a.length);
-  if (m < Number.POSITIVE_INFINITY) return { column: a, maxAbs: m };
+  if (m <= MAX_SPATIAL_FREQUENCY) return { column: a, maxAbs: m };
   for (let i = 0; i < a.length; i++) {
     const t = a[i]!;
     if (t - t !== 0) {
@@ -170,6 +172,21 @@ export function boundedFrequencyColumn(
         { argument: name, index: i },
       );
     }
+    if (Math.abs(t) > MAX_SPATIAL_FREQUENCY) {
+      throw new InputError(
+        `${fn}: ${name}[${i}] is ${t} cycles per radian; spatial frequencies (projected baseline / wavelength) ` +
+          `must lie within +-${MAX_SPATIAL_FREQUENCY}, far beyond any baseline in use (about 1e10 for an Earth-sized ` +
+          `baseline at a millimetre); give u and v in cycles per radian`,
+        { argument: name, index: i },
+      );
+    }
   }
   return { column: a, maxAbs: m };
 }
+
+/**
+ * Largest |u| or |v| accepted, cycles per radian: 1e20, some 1e10 times the longest baselines in use (an
+ * Earth-sized baseline, 1.3e7 m, at 1 mm is about 1e10). Beyond it |A^T q|^2 of large components can overflow, so
+ * such input is an error rather than a silently meaningless visibility.
+ */
+export const MAX_SPATIAL_FREQUENCY = 1e20;

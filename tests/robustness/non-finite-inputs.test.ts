@@ -16,6 +16,7 @@ import {
   pointsFromFrequencies,
   visibilityJacobian,
 } from '../../src/index.js';
+import { MAX_SPATIAL_FREQUENCY } from '../../src/units/index.js';
 
 const m = disk({ diameter: param('d', 2) }).shift(1, 0.5);
 const BAD = [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY] as const;
@@ -152,4 +153,38 @@ describe('non-finite coordinates', () => {
       }
     },
   );
+});
+
+describe('spatial frequencies beyond any baseline', () => {
+  // entries that take u and v in cycles per radian (the wavelength functions take metres and wavelengths)
+  const direct = ENTRIES.filter(([, names]) =>
+    names.every((n) => !n.includes('coord') && n !== 'wavelength'),
+  );
+
+  it('cover every entry that takes frequencies', () => {
+    expect(direct.length).toBe(11);
+  });
+
+  it.each(direct)(
+    '%s throws an InputError naming the argument and the index of a frequency beyond MAX_SPATIAL_FREQUENCY',
+    (_n, names, call) => {
+      for (const name of names) {
+        for (const huge of [1.0001 * MAX_SPATIAL_FREQUENCY, -1e170, 1e300]) {
+          const cols = goodColumns(names);
+          cols[name]![AT] = huge;
+          const e = inputErrorOf(() => call(cols));
+          expect(e.location.argument).toBe(name);
+          expect(e.location.index).toBe(AT);
+          expect(e.message).toContain(`${name}[${AT}]`);
+          expect(e.message).toContain('cycles per radian');
+        }
+      }
+    },
+  );
+
+  it('accepts frequencies up to the bound, with finite visibilities', () => {
+    const r = m.visibilities([MAX_SPATIAL_FREQUENCY, 3e10], [-MAX_SPATIAL_FREQUENCY, 1e10]);
+    expect(Array.from(r.re).every(Number.isFinite)).toBe(true);
+    expect(Array.from(r.im).every(Number.isFinite)).toBe(true);
+  });
 });
