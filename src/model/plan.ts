@@ -240,8 +240,12 @@ export function runPlan(
     split[4 * j + 3] = t.n0 - nh;
   }
   // the block kernels of block.ts (WebAssembly SIMD where it runs): u and v of each block are loaded into their
-  // columns once; phase ramps (one call per shifted term) and Gaussian factors read them there
+  // columns once when a term needs them; phase ramps (one call per shifted term) and Gaussian factors read them
   const bc = blockColumns();
+  const load = terms.some(
+    (t) =>
+      t.component !== true && (t.e0 !== 0 || t.n0 !== 0 || t.factors.some((f) => f.code === RADIAL_GAUSSIAN)),
+  );
   // without extended components every term is added already normalised (flux / total), with no last pass
   const scale = late ? 1 : k;
   for (let b0 = 0; b0 < n; b0 += PLAN_BLOCK) {
@@ -251,7 +255,7 @@ export function runPlan(
     im.fill(0, b0, b1);
     const uMax = perBlock ? maxAbs(u, b0, b1) : uBound;
     const vMax = perBlock ? maxAbs(v, b0, b1) : vBound;
-    loadBlock(bc, u, v, b0, len);
+    if (load) loadBlock(bc, u, v, b0, len);
     for (let j = 0; j < terms.length; j++) {
       const t = terms[j]!;
       if (t.component === true) continue; // a term with other components: below, over all points
