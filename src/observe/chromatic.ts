@@ -13,7 +13,7 @@ import { InputError } from '../errors.js';
 import { canonicalise } from '../model/canonical.js';
 import type { ComplexColumns, Model } from '../model/model.js';
 import { compilePlan, type Plan, runPlan } from '../model/plan.js';
-import { DEG_PER_RAD } from '../units/index.js';
+import { DEG_PER_RAD, MAX_SPATIAL_FREQUENCY } from '../units/index.js';
 
 /** Baselines with wavelengths, as OIFITS holds them. */
 export interface ChromaticPoints {
@@ -208,7 +208,10 @@ export interface Samples {
  * @param samples - Gauss-Legendre nodes per channel of non-zero width
  * @param fn - the calling function, for the message
  * @param bandName - the band column's name, for the message
- * @throws InputError when a channel reaches a wavelength <= 0 (its width is not below twice its wavelength)
+ * @param reach - optional: per point the largest |baseline| (m) the point evaluates; its spatial frequency at
+ *   every sub-sample wavelength must stay within MAX_SPATIAL_FREQUENCY
+ * @throws InputError when a channel reaches a wavelength <= 0 (its width is not below twice its wavelength), or
+ *   when a baseline over a (sub-)wavelength passes MAX_SPATIAL_FREQUENCY
  */
 export function channelSamples(
   wavelength: Float64Array,
@@ -216,6 +219,7 @@ export function channelSamples(
   samples: number,
   fn: string,
   bandName: string,
+  reach: Float64Array | null = null,
 ): Samples {
   const n = wavelength.length;
   const gl = gaussLegendre(samples);
@@ -273,6 +277,7 @@ export function channelSamples(
             { argument: 'band', index: i },
           );
         }
+        if (reach !== null) checkReach(reach, i, ls, fn);
         const k = next[g0 + s]!++;
         point[k] = i;
         lambda[k] = ls;
@@ -280,6 +285,7 @@ export function channelSamples(
         lam[g0 + s] = lambda[k]!;
       }
     } else {
+      if (reach !== null) checkReach(reach, i, l, fn);
       const k = next[g0]!++;
       point[k] = i;
       lambda[k] = l;
@@ -288,6 +294,31 @@ export function channelSamples(
     }
   }
   return { point, lambda, weight, start, lam };
+}
+
+/**
+ * Throws when point i's longest baseline over the wavelength lambda passes MAX_SPATIAL_FREQUENCY.
+ * @param reach - per point the largest |baseline|, m
+ * @param i - the point
+ * @param lambda - a (sub-)wavelength of its channel, m
+ * @param fn - the calling function, for the message
+ */
+function checkReach(reach: Float64Array, i: number, lambda: number, fn: string): void {
+  const f = reach[i]! / lambda;
+  if (f <= MAX_SPATIAL_FREQUENCY) return;
+  throw new InputError(
+    `${fn}: point ${i} has a baseline of ${reach[i]} m at a wavelength of ${lambda} m, a spatial frequency of ` +
+      `${f} cycles per radian, beyond ${MAX_SPATIAL_FREQUENCY}; give baselines and wavelengths in metres`,
+    { argument: 'wavelength', index: i },
+  );
+}
+
+/** Per point the largest |value| over the columns (their lengths equal), for channelSamples' reach. */
+function reachOf(...columns: Float64Array[]): Float64Array {
+  const n = columns[0]!.length;
+  const out = new Float64Array(n);
+  for (const c of columns) for (let i = 0; i < n; i++) out[i] = Math.max(out[i]!, Math.abs(c[i]!));
+  return out;
 }
 
 /** V at every sub-sample: baselines (metres) of the point, divided by the sub-sample's wavelength. */
@@ -375,7 +406,7 @@ export function chromaticVisibilities(
 ): ComplexColumns {
   const fn = 'chromaticVisibilities';
   const { n, be, bn, wl, band } = pointColumns(points, fn);
-  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band');
+  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band', reachOf(be, bn));
   const vk = visAtSamples(model, be, bn, s);
   const re = new Float64Array(n);
   const im = new Float64Array(n);
@@ -407,7 +438,7 @@ export function chromaticVis2(
 ): Float64Array {
   const fn = 'chromaticVis2';
   const { n, be, bn, wl, band } = pointColumns(points, fn);
-  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band');
+  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band', reachOf(be, bn));
   const vk = visAtSamples(model, be, bn, s);
   const out = new Float64Array(n);
   for (let k = 0; k < s.lambda.length; k++) {
@@ -449,13 +480,13 @@ export function chromaticBispectrum(
   const d = column(triangles.v2coord, 'v2coord', n, fn);
   const wl = column(triangles.wavelength, 'wavelength', n, fn, true);
   const band = column(triangles.band, 'band', n, fn);
-  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band');
   const e3 = new Float64Array(n);
   const n3 = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     e3[i] = -(a[i]! + c[i]!);
     n3[i] = -(b[i]! + d[i]!);
   }
+  const s = channelSamples(wl, band, readSamples(options, fn), fn, 'band', reachOf(a, b, c, d, e3, n3));
   const v1 = visAtSamples(model, a, b, s);
   const v2 = visAtSamples(model, c, d, s);
   const v3 = visAtSamples(model, e3, n3, s);

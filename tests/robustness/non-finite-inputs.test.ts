@@ -188,3 +188,30 @@ describe('spatial frequencies beyond any baseline', () => {
     expect(Array.from(r.im).every(Number.isFinite)).toBe(true);
   });
 });
+
+describe('baselines over wavelengths beyond any spatial frequency', () => {
+  const chromatic = ENTRIES.filter(([name]) => name.startsWith('chromatic'));
+
+  it('cover the four wavelength functions', () => {
+    expect(chromatic.length).toBe(4);
+  });
+
+  it.each(chromatic)(
+    '%s throws an InputError naming the point when a baseline over its wavelength passes MAX_SPATIAL_FREQUENCY',
+    (_n, names, call) => {
+      for (const [what, value] of [
+        ['wavelength', 1e-30], // 10 m over 1e-30 m
+        [names[0]!, 1e25], // a baseline of 1e25 m at 2 micrometres
+      ] as const) {
+        const cols = goodColumns(names);
+        cols[what]![AT] = value;
+        if (what === 'wavelength' && cols['band'] !== undefined) cols['band'][AT] = 0;
+        const e = inputErrorOf(() => call(cols));
+        expect(e.location.argument).toBe('wavelength');
+        expect(e.location.index).toBe(AT);
+        expect(e.message).toContain(`point ${AT}`);
+        expect(e.message).toContain('cycles per radian');
+      }
+    },
+  );
+});
