@@ -1,17 +1,17 @@
 /**
- * Block kernels: the two functions that dominate most terms, evaluated for up to {@link BLOCK_POINTS} points at
- * once into columns that the term loops then read. Phase ramps give sin and cos of 2 pi (u e0 + v n0) for the
- * shift factor exp(-2 pi i q . x0) of a shifted term; Gaussians give exp(-GAUSS_K q^T M q) for a Gaussian factor.
+ * Block kernels: the phase ramps of shifted terms, sin and cos of 2 pi (u e0 + v n0) for the shift factor
+ * exp(-2 pi i q . x0), evaluated for up to {@link BLOCK_POINTS} points at once into columns that the term loops
+ * then read.
  *
  * Where WebAssembly with 128-bit SIMD is available (Node >= 16.4, Deno, current browsers) they run in a small
  * generated module (block.wat, two points per instruction); elsewhere, or when a page's content security policy
- * forbids compiling WebAssembly, in JavaScript (the phase ramps through {@link sinCosTurns} and
- * {@link sinCosPhase}, the Gaussians through Math.exp). Both forms hold the accuracy stated on each function.
+ * forbids compiling WebAssembly, in JavaScript through {@link sinCosTurns} and {@link sinCosPhase}. Both forms
+ * hold the accuracy stated on each function.
  *
  * Use: {@link blockColumns} gives the columns; write the block's u and v into `u` and `v` ({@link loadBlock}),
- * then call {@link phaseRampPlain}, {@link phaseRampSplit} or {@link gaussianBlock} and read `sin` and `cos`, or
- * `gauss`, before the next call of the same kind. The columns belong to the running thread and are overwritten
- * by the next call, so a loop reads them before it calls anything that may use them again.
+ * then call {@link phaseRampPlain} or {@link phaseRampSplit} and read `sin` and `cos` before the next call. The
+ * columns belong to the running thread and are overwritten by the next call, so a loop reads them before it
+ * calls anything that may use them again.
  *
  * @module
  */
@@ -31,16 +31,12 @@ export interface BlockColumns {
   readonly sin: Float64Array;
   /** cos of the phase per point. */
   readonly cos: Float64Array;
-  /** exp(-GAUSS_K q^T M q) per point (written by {@link gaussianBlock}). */
-  readonly gauss: Float64Array;
   /** 'wasm' when the SIMD module runs the kernels, 'js' otherwise. */
   readonly backend: 'wasm' | 'js';
   /** @internal */
   readonly plain: (n: number, e0: number, n0: number) => void;
   /** @internal */
   readonly split: (n: number, eh: number, el: number, nh: number, nl: number) => void;
-  /** @internal */
-  readonly gaussian: (n: number, m11: number, m12x2: number, m22: number, k: number) => void;
 }
 
 /** The module's instance, or null where WebAssembly SIMD cannot run here. */
@@ -56,7 +52,6 @@ function instantiate(): BlockColumns | null {
       memory: WebAssembly.Memory;
       plain: BlockColumns['plain'];
       split: BlockColumns['split'];
-      gauss: BlockColumns['gaussian'];
     };
     const buf = exports.memory.buffer;
     const n = BLOCK_POINTS;
@@ -65,11 +60,9 @@ function instantiate(): BlockColumns | null {
       v: new Float64Array(buf, 8 * n, n),
       sin: new Float64Array(buf, 16 * n, n),
       cos: new Float64Array(buf, 24 * n, n),
-      gauss: new Float64Array(buf, 32 * n, n),
       backend: 'wasm',
       plain: exports.plain,
       split: exports.split,
-      gaussian: exports.gauss,
     };
   } catch {
     return null; // e.g. a content security policy without 'wasm-unsafe-eval'
@@ -83,13 +76,11 @@ function scalarColumns(): BlockColumns {
   const v = new Float64Array(n);
   const sin = new Float64Array(n);
   const cos = new Float64Array(n);
-  const gauss = new Float64Array(n);
   return {
     u,
     v,
     sin,
     cos,
-    gauss,
     backend: 'js',
     plain(m: number, e0: number, n0: number): void {
       const sc = SIN_COS;
@@ -109,14 +100,6 @@ function scalarColumns(): BlockColumns {
         cos[i] = sc[1]!;
       }
     },
-    gaussian(m: number, m11: number, m12x2: number, m22: number, k: number): void {
-      for (let i = 0; i < m; i++) {
-        const uu = u[i]!;
-        const vv = v[i]!;
-        const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
-        gauss[i] = Math.exp(-k * (r2 > 0 ? r2 : 0));
-      }
-    },
   };
 }
 
@@ -127,7 +110,7 @@ let current: BlockColumns | null = null;
  *
  * @returns the columns and the kernels that fill them
  *
- * Notes: the module is compiled once per thread (a worker has its own); it is 2.2 kB, small enough for the
+ * Notes: the module is compiled once per thread (a worker has its own); it is 1.6 kB, small enough for the
  * synchronous compilation that browsers allow on their main thread.
  */
 export function blockColumns(): BlockColumns {
@@ -214,31 +197,4 @@ export function phaseRampSplit(
   nl: number,
 ): void {
   bc.split(n, eh, el, nh, nl);
-}
-
-/**
- * exp(-k r^2) with r^2 = m11 u^2 + 2 m12 u v + m22 v^2 (clamped at 0) for the block's first n points, into
- * `bc.gauss`: a Gaussian factor seen through the quadratic form M = A A^T.
- *
- * @param bc - the block columns, u and v loaded
- * @param n - number of points (<= BLOCK_POINTS)
- * @param m11 - M entries, rad^2
- * @param m12 - off-diagonal entry (not doubled)
- * @param m22 - second diagonal entry
- * @param k - the exponent per unit r^2 (GAUSS_K = pi^2 / (4 ln 2) for a Gaussian of unit FWHM, terms.ts)
- *
- * Notes: the WebAssembly form reduces x = -k r^2 by Cody and Waite's method with ln 2 in two parts and sums
- * exp of the remainder by its Taylor series to the 13th power; its relative error against Math.exp is below
- * 4e-16 down to the smallest normal results, it follows Math.exp into the subnormal range and gives 0 below
- * x = -746 (tests/kernels/block.test.ts).
- */
-export function gaussianBlock(
-  bc: BlockColumns,
-  n: number,
-  m11: number,
-  m12: number,
-  m22: number,
-  k: number,
-): void {
-  bc.gaussian(n, m11, 2 * m12, m22, k);
 }

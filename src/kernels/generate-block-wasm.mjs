@@ -1,5 +1,5 @@
 // Generates src/kernels/block.wat and src/kernels/block-wasm.ts: the WebAssembly (128-bit SIMD) form of the
-// block kernels of src/kernels/block.ts (phase ramps and Gaussians), two points per instruction.
+// block kernels of src/kernels/block.ts (phase ramps), two points per instruction.
 //
 // Run from the repository root:  node src/kernels/generate-block-wasm.mjs
 // It needs the development dependency `wabt` (the WebAssembly Binary Toolkit compiled to JavaScript), which
@@ -7,15 +7,9 @@
 // "generated: do not edit". tests/kernels/block.test.ts assembles block.wat again and checks that the
 // committed bytes are the same.
 //
-// Phase ramps: the arithmetic of sinCosTurns and sinCosPhase (sincos.ts), term for term and in the same order,
-// with one change: the quadrant q = floor(4 t + 1/2) comes from f64x2.floor (exact for every finite t), where
-// the scalar code truncates 4 t + 1/2 + 2^30 and removes whole turns first when |t| > 2^26.
-//
-// Gaussians exp(-k r^2): Cody and Waite's reduction x = t ln 2 + r with t = nearest(x / ln 2) and ln 2 in two
-// parts (the head has 21 trailing zero bits, so t ln2_hi is exact for |t| < 2^21; the split of fdlibm's e_exp.c,
-// from memory, checked below), exp(r) for |r| <= ln 2 / 2 from its Taylor series to r^13 (next term below 4e-18), and 2^t put
-// back as two factors 2^t1 2^t2 built from their exponent bits, so that results down to the subnormal range
-// (x >= -745.2) come out right and x below -746 gives 0.
+// The arithmetic is that of sinCosTurns and sinCosPhase (sincos.ts), term for term and in the same order, with
+// one change: the quadrant q = floor(4 t + 1/2) comes from f64x2.floor (exact for every finite t), where the
+// scalar code truncates 4 t + 1/2 + 2^30 and removes whole turns first when |t| > 2^26.
 import { execFileSync } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -52,26 +46,12 @@ const C14 = -1 / 87178291200;
 const C16 = 1 / 20922789888000;
 const SPLITTER = 134217729;
 
-// Memory layout (bytes): five columns of BLOCK binary64 values, u, v, sin, cos, gauss.
+// Memory layout (bytes): four columns of BLOCK binary64 values, u, v, sin, cos.
 const BLOCK = 1024;
 const U = 0;
 const V = 8 * BLOCK;
 const SIN = 16 * BLOCK;
 const COS = 24 * BLOCK;
-const GAUSS = 32 * BLOCK;
-
-// ln 2 in two parts (fdlibm's ln2_hi, ln2_lo) and 1 / ln 2
-const LN2_HI = 0.6931471803691238;
-const LN2_LO = 1.9082149292705877e-10;
-const LOG2E = Math.LOG2E;
-{
-  // the head must end in 21 zero bits (32 significant bits, so t LN2_HI is exact for |t| < 2^21) and head +
-  // tail must be ln 2
-  const bits = new DataView(new ArrayBuffer(8));
-  bits.setFloat64(0, LN2_HI);
-  if ((bits.getUint32(4) & 0x1fffff) !== 0) throw new Error('LN2_HI does not end in 21 zero bits');
-  if (Math.abs(LN2_HI + LN2_LO - Math.LN2) > 1e-16) throw new Error('LN2_HI + LN2_LO is not ln 2');
-}
 
 const SINCOS_LOCALS = ['t', 'q', 'r', 'x', 'x2', 'x4', 'x8', 's', 'c', 'k', 'h', 'odd', 'even', 'sign'];
 
@@ -142,7 +122,7 @@ function sinCosBody() {
 }
 
 /** A loop over the lanes 0..2 ceil(n / 2) - 1, with `phase` setting $t from the loaded $u, $v first. */
-function loopFunction(name, params, extraLocals, prologue, phase, body = sinCosBody()) {
+function loopFunction(name, params, extraLocals, prologue, phase) {
   const locals = [...SINCOS_LOCALS, 'u', 'v', ...extraLocals].map((l) => `(local $${l} v128)`).join(' ');
   return `  (func (export "${name}") (param $n i32) ${params.map((p) => `(param $${p} f64)`).join(' ')}
     (local $j i32) (local $end i32) ${locals}
@@ -155,7 +135,7 @@ function loopFunction(name, params, extraLocals, prologue, phase, body = sinCosB
         (local.set $u (v128.load offset=${U} (local.get $j)))
         (local.set $v (v128.load offset=${V} (local.get $j)))
         ${phase.join('\n        ')}
-        ${body}
+        ${sinCosBody()}
         (local.set $j (i32.add (local.get $j) (i32.const 16)))
         (br $next))))`;
 }
@@ -207,82 +187,13 @@ const split = loopFunction(
   ],
 );
 
-// gauss: exp(-k (m11 u^2 + m12x2 u v + m22 v^2)) with the quadratic form clamped at 0 (as the scalar loops)
-const i64 = (x) => `(i64x2.splat (i64.const ${x}))`;
-/** 2^t for integral t in [-540, 540], from its exponent bits. */
-const pow2 = (t) =>
-  `(i64x2.shl (i64x2.add (i64x2.extend_low_i32x4_s (i32x4.trunc_sat_f64x2_s_zero ${t})) ${i64(1023)}) (i32.const 52))`;
-const gauss = loopFunction(
-  'gauss',
-  ['m11', 'm12x2', 'm22', 'gk'],
-  ['a11', 'a12', 'a22', 'nk', 'y', 'tt', 'rr', 'r2', 'r4', 'tail', 'p', 't1'],
-  [
-    set('a11', '(f64x2.splat (local.get $m11))'),
-    set('a12', '(f64x2.splat (local.get $m12x2))'),
-    set('a22', '(f64x2.splat (local.get $m22))'),
-    set('nk', '(f64x2.neg (f64x2.splat (local.get $gk)))'),
-  ],
-  [
-    // r^2 = m11 u u + m12x2 u v + m22 v v, in the order of the scalar loops, then max(r^2, 0)
-    set(
-      'y',
-      add(
-        add(mul(mul(g('a11'), g('u')), g('u')), mul(mul(g('a12'), g('u')), g('v'))),
-        mul(mul(g('a22'), g('v')), g('v')),
-      ),
-    ),
-    set('y', `(f64x2.max ${g('y')} ${splat(0)})`),
-    // x = -k r^2, kept above -746 (below, the result is 0 all the same)
-    set('y', `(f64x2.max ${mul(g('nk'), g('y'))} ${splat(-746)})`),
-  ],
-  [
-    set('tt', `(f64x2.nearest ${mul(g('y'), splat(LOG2E))})`),
-    set('rr', sub(sub(g('y'), mul(g('tt'), splat(LN2_HI))), mul(g('tt'), splat(LN2_LO)))),
-    set('r2', mul(g('rr'), g('rr'))),
-    set('r4', mul(g('r2'), g('r2'))),
-    // tail = (1/2 + r/6) + r^2 (1/24 + r/120) + r^4 (1/720 + r/5040 + r^2 (1/8! + r/9!))
-    //        + r^8 (1/10! + r/11! + r^2 (1/12! + r/13!))
-    set(
-      'tail',
-      add(
-        add(
-          add(
-            add(splat(1 / 2), mul(g('rr'), splat(1 / 6))),
-            mul(g('r2'), add(splat(1 / 24), mul(g('rr'), splat(1 / 120)))),
-          ),
-          mul(
-            g('r4'),
-            add(
-              add(splat(1 / 720), mul(g('rr'), splat(1 / 5040))),
-              mul(g('r2'), add(splat(1 / 40320), mul(g('rr'), splat(1 / 362880)))),
-            ),
-          ),
-        ),
-        mul(
-          mul(g('r4'), g('r4')),
-          add(
-            add(splat(1 / 3628800), mul(g('rr'), splat(1 / 39916800))),
-            mul(g('r2'), add(splat(1 / 479001600), mul(g('rr'), splat(1 / 6227020800)))),
-          ),
-        ),
-      ),
-    ),
-    // exp(r) = 1 + (r + r^2 tail): the small parts first, the leading 1 last
-    set('p', add(splat(1), add(g('rr'), mul(g('r2'), g('tail'))))),
-    // 2^t = 2^t1 2^(t - t1) with t1 = floor(t / 2): both factors normal for t >= -1078
-    set('t1', floor(mul(g('tt'), splat(0.5)))),
-    `(v128.store offset=${GAUSS} (local.get $j) ${mul(mul(g('p'), pow2(g('t1'))), pow2(sub(g('tt'), g('t1'))))})`,
-  ].join('\n        '),
-);
-
 const wat = `;; generated by src/kernels/generate-block-wasm.mjs: do not edit
-;; Block kernels (block.ts), two lanes per instruction: phase ramps sin(2 pi t), cos(2 pi t) and Gaussians.
-;; Memory: u at ${U}, v at ${V}, sin at ${SIN}, cos at ${COS}, gauss at ${GAUSS} (bytes), ${BLOCK} binary64 values each.
+;; Block kernels (block.ts), two lanes per instruction: phase ramps sin(2 pi t), cos(2 pi t).
+;; Memory: u at ${U}, v at ${V}, sin at ${SIN}, cos at ${COS} (bytes), ${BLOCK} binary64 values each.
 (module
   (memory (export "memory") 1)
 ${plain}
 ${split}
-${gauss}
 )
 `;
 
@@ -306,7 +217,7 @@ writeFileSync(
 export const BLOCK_WASM_BASE64 =
 ${lines.join(' +\n')};
 
-/** Points per column of the module's memory (u, v, sin, cos and gauss). @internal */
+/** Points per column of the module's memory (u, v, sin and cos). @internal */
 export const BLOCK_WASM_POINTS = ${BLOCK};
 `,
 );

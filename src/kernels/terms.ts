@@ -8,14 +8,13 @@
  *
  * The block kernels (addPointTerm, addRadialTerm, addRadialProductTerm, addLimbDarkenedTerm) take the block's
  * columns of block.ts, loaded with the block's u and v (index j for the point start + j); for a shifted term
- * (`shifted` true) `bc.sin` and `bc.cos` already hold its phase ramp. Gaussian factors come from
- * gaussianBlock (block.ts) over the same columns.
+ * (`shifted` true) `bc.sin` and `bc.cos` already hold its phase ramp.
  *
  * @module
  */
 import { besselJ0 as besselJ0Import, diskAmplitude as diskAmplitudeImport } from './bessel.js';
 import { HANKEL_START as PIECES_END, pieceIndex, pieceLocal } from './bessel-coefficients.js';
-import { type BlockColumns, gaussianBlock } from './block.js';
+import type { BlockColumns } from './block.js';
 import { quadraticLimbAmplitude as quadraticLimbAmplitudeImport } from './components.js';
 import { basisPiece as basisPieceImport } from './limb-pieces.js';
 import {
@@ -189,21 +188,25 @@ export function addRadialTerm(
         }
       }
       return;
-    case RADIAL_GAUSSIAN: {
-      // exp(-GAUSS_K r^2) for the whole block first (block.ts: WebAssembly SIMD where it runs)
-      gaussianBlock(bc, end - start, m11, m12, m22, GAUSS_K);
-      const gauss = bc.gauss;
+    case RADIAL_GAUSSIAN:
       if (sn !== null && cs !== null) {
         for (let i = start, j = 0; i < end; i++, j++) {
-          const a = flux * gauss[j]!;
+          const uu = u[i]!;
+          const vv = v[i]!;
+          const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
+          const a = flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
           re[i] = re[i]! + a * cs[j]!;
           im[i] = im[i]! - a * sn[j]!;
         }
       } else {
-        for (let i = start, j = 0; i < end; i++, j++) re[i] = re[i]! + flux * gauss[j]!;
+        for (let i = start; i < end; i++) {
+          const uu = u[i]!;
+          const vv = v[i]!;
+          const r2 = m11 * uu * uu + m12x2 * uu * vv + m22 * vv * vv;
+          re[i] = re[i]! + flux * Math.exp(-GAUSS_K * (r2 > 0 ? r2 : 0));
+        }
       }
       return;
-    }
     case RADIAL_THIN_RING:
       if (sn !== null && cs !== null) {
         for (let i = start, j = 0; i < end; i++, j++) {
@@ -307,9 +310,8 @@ export function addAmplitudeTerm(
  * @param ratio - for two factors whose forms are proportional to rounding (M_1 = ratio M_0, compilePlan finds
  *   them), the ratio, so that one form serves both; NaN otherwise
  *
- * Notes: gives the numbers of multiplying the factors one loop at a time ({@link mulRadial}) and adding the
- * ramp ({@link addAmplitudeTerm}) to rounding: a Gaussian factor comes from gaussianBlock (block.ts) and is
- * multiplied in last.
+ * Notes: gives the same numbers as multiplying the factors one loop at a time ({@link mulRadial}) and adding the
+ * ramp ({@link addAmplitudeTerm}): the factors are multiplied into the flux in the same order.
  */
 export function addRadialProductTerm(
   codes: Int32Array,
@@ -336,31 +338,8 @@ export function addRadialProductTerm(
       throw new Error(`addRadialProductTerm: unknown kernel code ${c}`);
     }
   }
-  if (nf === 2 && (codes[0] === RADIAL_GAUSSIAN) !== (codes[1] === RADIAL_GAUSSIAN)) {
-    // one Gaussian factor (a Gaussian-blurred ring or disk): the Gaussian for the whole block from block.ts,
-    // the other factor per point
-    const gf = codes[0] === RADIAL_GAUSSIAN ? 0 : 1;
-    const of = 1 - gf;
-    gaussianBlock(bc, end - start, m[3 * gf]!, m[3 * gf + 1]!, m[3 * gf + 2]!, GAUSS_K);
-    const gauss = bc.gauss;
-    const k = radialUnit(codes[of]!);
-    const a11 = m[3 * of]!;
-    const a12 = 2 * m[3 * of + 1]!;
-    const a22 = m[3 * of + 2]!;
-    for (let i = start, j = 0; i < end; i++, j++) {
-      const uu = u[i]!;
-      const vv = v[i]!;
-      const r2 = a11 * uu * uu + a12 * uu * vv + a22 * vv * vv;
-      const a = flux * k(r2 > 0 ? r2 : 0) * gauss[j]!;
-      if (sn !== null && cs !== null) {
-        re[i] = re[i]! + a * cs[j]!;
-        im[i] = im[i]! - a * sn[j]!;
-      } else re[i] = re[i]! + a;
-    }
-    return;
-  }
   if (nf === 2) {
-    // two factors of other kinds: unrolled, the forms in locals, the kernels picked once
+    // two factors (a blurred ring, a blurred disk): unrolled, the forms in locals, the kernels picked once
     const k0 = radialUnit(codes[0]!);
     const k1 = radialUnit(codes[1]!);
     const a11 = m[0]!;

@@ -239,13 +239,10 @@ export function runPlan(
     split[4 * j + 2] = nh;
     split[4 * j + 3] = t.n0 - nh;
   }
-  // the block kernels of block.ts (WebAssembly SIMD where it runs): u and v of each block are loaded into their
-  // columns once when a term needs them; phase ramps (one call per shifted term) and Gaussian factors read them
+  // the phase ramps of block.ts (WebAssembly SIMD where it runs): u and v of each block are loaded into their
+  // columns once when a term is shifted, then one call per shifted term
   const bc = blockColumns();
-  const load = terms.some(
-    (t) =>
-      t.component !== true && (t.e0 !== 0 || t.n0 !== 0 || t.factors.some((f) => f.code === RADIAL_GAUSSIAN)),
-  );
+  const load = terms.some((t) => t.component !== true && (t.e0 !== 0 || t.n0 !== 0));
   // without extended components every term is added already normalised (flux / total), with no last pass
   const scale = late ? 1 : k;
   for (let b0 = 0; b0 < n; b0 += PLAN_BLOCK) {

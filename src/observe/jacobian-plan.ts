@@ -26,13 +26,7 @@ import {
   W2_PIECES as W2_PIECES_IMPORT,
   w2Piece,
 } from '../kernels/bessel-coefficients.js';
-import {
-  type BlockColumns,
-  blockColumns,
-  gaussianBlock,
-  phaseRampPlain,
-  phaseRampSplit,
-} from '../kernels/block.js';
+import { type BlockColumns, blockColumns, phaseRampPlain, phaseRampSplit } from '../kernels/block.js';
 import type { ComplexDerivativeKernel } from '../kernels/component-derivatives.js';
 import { j2OverX2, type RadialDerivativeKernel } from '../kernels/derivatives.js';
 import { limbPieces, limbSlopePieces } from '../kernels/limb-pieces.js';
@@ -366,14 +360,14 @@ interface Scratch {
   /** Per block point: F (unnormalised). */
   readonly fre: Float64Array;
   readonly fim: Float64Array;
-  /** The block columns (block.ts): `bu` and `bv` are its u and v, read by the phase ramps and Gaussians. */
+  /** The block columns (block.ts): `bu` and `bv` are its u and v, read by the phase ramps. */
   readonly cols: BlockColumns;
 }
 
 function scratchFor(plan: JPlan): Scratch {
   const nf = Math.max(1, plan.maxFactors);
   const b = () => new Float64Array(BLOCK);
-  // the block's u and v are the columns of the block kernels themselves (block.ts), so those need no copy
+  // the block's u and v are the columns of the phase ramps themselves (block.ts), so those need no copy
   const cols = blockColumns();
   return {
     kout: new Float64Array(plan.maxOut),
@@ -549,18 +543,14 @@ function simpleTerm(
           }
         }
         break;
-      case CODE_GAUSS: {
-        // exp(-GK r2) for the block from block.ts (u and v are its columns already)
-        const cols = s.cols;
-        gaussianBlock(cols, m, m11, m12, m22, GK);
-        const gauss = cols.gauss;
+      case CODE_GAUSS:
         for (let b = 0; b < m; b++) {
-          const p = gauss[b]!;
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const p = Math.exp(-GK * (r2 > 0 ? r2 : 0));
           bp[b] = p;
           bg[b] = -GK * flux * p;
         }
         break;
-      }
       case CODE_RING:
         for (let b = 0; b < m; b++) {
           const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
@@ -917,18 +907,15 @@ function blockTerm(
           bp[b] = bp[b]! * p;
         }
         break;
-      case CODE_GAUSS: {
-        const cols = s.cols;
-        gaussianBlock(cols, m, m11, m12, m22, GK);
-        const gauss = cols.gauss;
+      case CODE_GAUSS:
         for (let b = 0; b < m; b++) {
-          const p = gauss[b]!;
+          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
+          const p = Math.exp(-GK * (r2 > 0 ? r2 : 0));
           fp[po + b] = p;
           fg[po + b] = -GK * p;
           bp[b] = bp[b]! * p;
         }
         break;
-      }
       case CODE_RING:
         for (let b = 0; b < m; b++) {
           const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
