@@ -28,22 +28,11 @@ const mul = (a, b) => `(f64x2.mul ${a} ${b})`;
 const floor = (a) => `(f64x2.floor ${a})`;
 const set = (name, value) => `(local.set $${name} ${value})`;
 
-// Taylor coefficients of sin and cos, as in sincos.ts
-const S3 = -1 / 6;
-const S5 = 1 / 120;
-const S7 = -1 / 5040;
-const S9 = 1 / 362880;
-const S11 = -1 / 39916800;
-const S13 = 1 / 6227020800;
-const S15 = -1 / 1307674368000;
-const C2 = -1 / 2;
-const C4 = 1 / 24;
-const C6 = -1 / 720;
-const C8 = 1 / 40320;
-const C10 = -1 / 3628800;
-const C12 = 1 / 479001600;
-const C14 = -1 / 87178291200;
-const C16 = 1 / 20922789888000;
+// Taylor coefficients of sin and cos, as in sincos.ts: (-1)^k / n! (n! is exact in binary64 up to 18!)
+const factorial = (n) => (n <= 1 ? 1 : n * factorial(n - 1));
+const taylor = (n) => (n % 4 < 2 ? 1 : -1) / factorial(n);
+const [S3, S5, S7, S9, S11, S13, S15] = [3, 5, 7, 9, 11, 13, 15].map(taylor);
+const [C2, C4, C6, C8, C10, C12, C14, C16] = [2, 4, 6, 8, 10, 12, 14, 16].map(taylor);
 const SPLITTER = 134217729;
 
 // Memory layout (bytes): four columns of BLOCK binary64 values, u, v, sin, cos.

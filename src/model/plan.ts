@@ -72,6 +72,8 @@ export interface PlanTerm {
   readonly component?: boolean;
   /** @internal For a lone limb-darkened disk: its law's table on the unit pieces (limbPieces, limb-pieces.ts). */
   readonly limb?: Float64Array | null;
+  /** @internal Heads and tails of the shift (splitHead: e0 head, tail, n0 head, tail), for the split phase ramp. */
+  readonly split?: Float64Array;
 }
 
 /** A compiled model: terms in radians with kernel codes, the total flux, and scratch buffers. */
@@ -154,14 +156,17 @@ export function compilePlan(terms: readonly DualTerm[], path = 'model'): Plan {
     const limb = loneLimb
       ? limbPieces(lp![0]!, lp![1]!, factors[0]!.code === RADIAL_QUADRATIC_LD ? lp![2]! : 0)
       : null;
+    const e0 = t.east.v * RAD_PER_MAS;
+    const n0 = t.north.v * RAD_PER_MAS;
     out.push({
       flux: t.flux.v,
-      e0: t.east.v * RAD_PER_MAS,
-      n0: t.north.v * RAD_PER_MAS,
+      e0,
+      n0,
       factors,
       fused,
       component,
       limb,
+      split: Float64Array.of(splitHead(e0), e0 - splitHead(e0), splitHead(n0), n0 - splitHead(n0)),
     });
   }
   checkTotalFlux(total, absTotal, path);
@@ -226,18 +231,9 @@ export function runPlan(
   // the largest |u|, |v| of each block decide between the plain and the split phase, unless bounds over all
   // points (the caller's, from its finiteness check) already say that no term needs the split one
   let perBlock = false;
-  // heads and tails of each term's shift (splitHead), for the split phase
-  const split = new Float64Array(4 * terms.length);
-  for (let j = 0; j < terms.length; j++) {
-    const t = terms[j]!;
+  for (const t of terms) {
     if (t.component === true) late = true;
     else if ((t.e0 !== 0 || t.n0 !== 0) && phaseNeedsSplit(uBound, vBound, t.e0, t.n0)) perBlock = true;
-    const eh = splitHead(t.e0);
-    const nh = splitHead(t.n0);
-    split[4 * j] = eh;
-    split[4 * j + 1] = t.e0 - eh;
-    split[4 * j + 2] = nh;
-    split[4 * j + 3] = t.n0 - nh;
   }
   // the phase ramps of block.ts (WebAssembly SIMD where it runs): u and v of each block are loaded into their
   // columns once when a term is shifted, then one call per shifted term
@@ -262,7 +258,8 @@ export function runPlan(
       const shifted = t.e0 !== 0 || t.n0 !== 0;
       if (shifted) {
         if (phaseNeedsSplit(uMax, vMax, t.e0, t.n0)) {
-          phaseRampSplit(bc, len, split[4 * j]!, split[4 * j + 1]!, split[4 * j + 2]!, split[4 * j + 3]!);
+          const sp = t.split!;
+          phaseRampSplit(bc, len, sp[0]!, sp[1]!, sp[2]!, sp[3]!);
         } else phaseRampPlain(bc, len, t.e0, t.n0);
       }
       if (nf === 1 && (f0!.code === RADIAL_LINEAR_LD || f0!.code === RADIAL_QUADRATIC_LD)) {

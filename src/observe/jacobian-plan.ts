@@ -64,7 +64,7 @@ const CODE_GAUSS = 1;
 const CODE_RING = 2;
 const CODE_RADIAL = 3;
 const CODE_COMPLEX = 4;
-/** A linearly or quadratically limb-darkened disk: its law's value and slope tables (limb-pieces.ts). */
+/** A lone linearly or quadratically limb-darkened disk: its law's value and slope tables (limb-pieces.ts). */
 const CODE_LIMB = 5;
 
 /** One canonical term flattened for the per-point loop. */
@@ -195,7 +195,8 @@ export function compileJacobianPlan(terms: readonly DualTerm[], cols: number, pa
       if (kind.radial) {
         radialKernels.push(kind.kernel);
         complexKernels.push(null);
-        const law = f.kind === 'linearLimbDarkened' || f.kind === 'quadraticLimbDarkened';
+        // a lone linear or quadratic law gets its tables (simpleTerm); in products the kernel serves
+        const law = nf === 1 && (f.kind === 'linearLimbDarkened' || f.kind === 'quadraticLimbDarkened');
         codes[k] =
           f.kind === 'uniformDisk'
             ? CODE_DISK
@@ -808,46 +809,24 @@ function realParameters(
     }
     return;
   }
+  // two to four parameters in one pass; the slots past k repeat the first column with zero coefficients (they
+  // add 0), so one loop serves every k
+  const col = (j: number) => (j < k ? idx[q + j]! : c0);
   const f1 = c(1, 0);
   const a1 = c(1, 3);
   const b1 = c(1, 4);
   const e1 = c(1, 5);
-  const c1 = idx[q + 1]!;
-  if (k === 2) {
-    for (let b = 0, row = row0; b < m; b++, row += cols) {
-      const p = bp[b]!;
-      const g = bg[b]!;
-      const x2 = bu2[b]!;
-      const xy = buv[b]!;
-      const y2 = bv2[b]!;
-      dfr[row + c0] = dfr[row + c0]! + f0 * p + g * (a0 * x2 + b0 * xy + e0 * y2);
-      dfr[row + c1] = dfr[row + c1]! + f1 * p + g * (a1 * x2 + b1 * xy + e1 * y2);
-    }
-    return;
-  }
+  const c1 = col(1);
   const f2 = c(2, 0);
   const a2 = c(2, 3);
   const b2 = c(2, 4);
   const e2 = c(2, 5);
-  const c2 = idx[q + 2]!;
-  if (k === 3) {
-    for (let b = 0, row = row0; b < m; b++, row += cols) {
-      const p = bp[b]!;
-      const g = bg[b]!;
-      const x2 = bu2[b]!;
-      const xy = buv[b]!;
-      const y2 = bv2[b]!;
-      dfr[row + c0] = dfr[row + c0]! + f0 * p + g * (a0 * x2 + b0 * xy + e0 * y2);
-      dfr[row + c1] = dfr[row + c1]! + f1 * p + g * (a1 * x2 + b1 * xy + e1 * y2);
-      dfr[row + c2] = dfr[row + c2]! + f2 * p + g * (a2 * x2 + b2 * xy + e2 * y2);
-    }
-    return;
-  }
+  const c2 = col(2);
   const f3 = c(3, 0);
   const a3 = c(3, 3);
   const b3 = c(3, 4);
   const e3 = c(3, 5);
-  const c3 = idx[q + 3]!;
+  const c3 = col(3);
   for (let b = 0, row = row0; b < m; b++, row += cols) {
     const p = bp[b]!;
     const g = bg[b]!;
@@ -936,46 +915,6 @@ function blockTerm(
           bp[b] = bp[b]! * p;
         }
         break;
-      case CODE_LIMB: {
-        // the law's value and slope from its own tables (one piece index for both), as the value path does;
-        // the basis functions, dP/dc, only when a parameter moves the coefficients; elsewhere the kernel
-        const tables = t.limb[f]!;
-        const lp = tables.p;
-        const ls = tables.s;
-        const basisPiece = basisPieceImport;
-        const DISK_PIECES = DISK_PIECES_IMPORT;
-        const L32_PIECES = L32_PIECES_IMPORT;
-        const W2_PIECES = W2_PIECES_IMPORT;
-        const kernel = t.radialKernels[f]!;
-        const pk = t.p[f]!;
-        const np = pk.length;
-        const so = t.slopeOff[f]! * BLOCK;
-        const moved = t.moved[f] === 1;
-        for (let b = 0; b < m; b++) {
-          const r2 = m11 * bu2[b]! + m12 * buv[b]! + m22 * bv2[b]!;
-          const x = Math.PI * Math.sqrt(r2 > 0 ? r2 : 0);
-          let p: number;
-          if (x >= 2 && x < PIECES_END) {
-            const k = pieceIndex(x);
-            const tt = pieceLocal(x, k);
-            p = basisPiece(lp, k, tt);
-            fg[po + b] = basisPiece(ls, k, tt);
-            if (moved) {
-              fs[so + b] = basisPiece(DISK_PIECES, k, tt);
-              fs[so + BLOCK + b] = basisPiece(L32_PIECES, k, tt);
-              if (np > 2) fs[so + 2 * BLOCK + b] = basisPiece(W2_PIECES, k, tt);
-            }
-          } else {
-            kernel(r2 > 0 ? r2 : 0, pk, kout, null);
-            p = kout[0]!;
-            fg[po + b] = kout[1]!;
-            for (let r = 0; r < np; r++) fs[so + r * BLOCK + b] = kout[2 + r]!;
-          }
-          fp[po + b] = p;
-          bp[b] = bp[b]! * p;
-        }
-        break;
-      }
       default: {
         const kernel = t.radialKernels[f]!;
         const pk = t.p[f]!;

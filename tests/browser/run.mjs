@@ -48,9 +48,9 @@ const importMap = {
 };
 
 /**
- * The page: a model's V^2 and closure phase, and a shifted point and a shifted Gaussian against closed forms
- * computed in the page with Math.cos, Math.sin and Math.exp (so the block kernels are checked in the browser,
- * in WebAssembly or, under a content security policy that forbids compiling it, in JavaScript).
+ * The page: a model's V^2 and closure phase, and a shifted Gaussian against its closed form computed in the page
+ * (tests/smoke/closed-form.mjs), so the phase ramps are checked in the browser, in WebAssembly or, under a content
+ * security policy that forbids compiling it, in JavaScript.
  */
 const page = (csp) => `<!doctype html><meta charset="utf-8"><title>uvsky browser smoke test</title>
 ${csp ? `<meta http-equiv="Content-Security-Policy" content="${csp}">` : ''}
@@ -61,17 +61,8 @@ ${csp ? `<meta http-equiv="Content-Security-Policy" content="${csp}">` : ''}
     const m = sum(disk({ diameter: 2 }), point().weight(0.1).shift(3, 0));
     const v2 = Array.from(m.vis2([0, 5e7], [0, 0]));
     const cp = Array.from(m.closurePhase([5e7], [0], [0], [5e7]));
-    const MAS = Math.PI / 180 / 3600 / 1000;
-    const u = [5e7, 1.2e8, -2e8];
-    const v = [2e7, -3e7, 1e8];
-    const z = gaussian({ fwhm: 2 }).shift(3, -1).visibilities(u, v);
-    let worst = 0;
-    for (let i = 0; i < u.length; i++) {
-      const q = Math.hypot(u[i], v[i]);
-      const amp = Math.exp(-((Math.PI * 2 * MAS * q) ** 2) / (4 * Math.LN2));
-      const phase = -2 * Math.PI * (u[i] * 3 * MAS - v[i] * MAS);
-      worst = Math.max(worst, Math.abs(z.re[i] - amp * Math.cos(phase)), Math.abs(z.im[i] - amp * Math.sin(phase)));
-    }
+    const { shiftedGaussianError } = await import('/smoke/closed-form.mjs');
+    const worst = shiftedGaussianError(gaussian);
     let wasm = true;
     try { new WebAssembly.Module(new Uint8Array([0, 97, 115, 109, 1, 0, 0, 0])); } catch { wasm = false; }
     window.__result = { v2, cp, worst, wasm, model: m.toString() };
@@ -94,6 +85,10 @@ const server = createServer((req, res) => {
   }
   if (vendor.has(path)) {
     res.writeHead(200, { 'content-type': 'text/javascript' }).end(vendor.get(path));
+    return;
+  }
+  if (path === '/smoke/closed-form.mjs') {
+    res.writeHead(200, { 'content-type': 'text/javascript' }).end(readFileSync(join(ROOT, 'tests', path)));
     return;
   }
   const file = join(ROOT, path);
